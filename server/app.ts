@@ -1,0 +1,30 @@
+import { existsSync } from 'node:fs'
+import { join } from 'node:path'
+import express from 'express'
+import type { AppConfig } from './config'
+import { errorHandler, notFound } from './middleware/error-handler'
+import { apiRouter } from './routes'
+
+/** Builds the Express app; never listens (server/index.ts does). */
+export function createApp(config: AppConfig) {
+  const app = express()
+  app.locals.config = config
+  app.disable('x-powered-by')
+  app.set('trust proxy', 'loopback')
+  app.use(express.json({ limit: '100kb' }))
+
+  app.use('/api', apiRouter(), notFound)
+
+  // Production: the same process serves the built client; unknown paths get the app shell.
+  if (config.clientDist && existsSync(config.clientDist)) {
+    const indexHtml = join(config.clientDist, 'index.html')
+    app.use(express.static(config.clientDist, { index: false, maxAge: '1h' }))
+    app.get(/^\/(?!api\/).*/, (_req, res) => {
+      res.set('Cache-Control', 'no-cache').sendFile(indexHtml)
+    })
+  }
+
+  app.use(notFound)
+  app.use(errorHandler)
+  return app
+}

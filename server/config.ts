@@ -1,0 +1,67 @@
+import { randomBytes } from 'node:crypto'
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { dirname, resolve } from 'node:path'
+import { z } from 'zod'
+
+const booleanFromEnv = z
+  .enum(['true', 'false', '1', '0'])
+  .transform((v) => v === 'true' || v === '1')
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default('0.0.0.0'),
+  DATABASE_PATH: z.string().default('data/chalkline.sqlite'),
+  /** When unset, a secret is generated on first run and kept next to the database. */
+  JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters').optional(),
+  JWT_TTL: z.string().regex(/^\d+[smhd]$/, 'JWT_TTL looks like 12h or 7d').default('7d'),
+  /** bcrypt cost factor; 10 is the floor (OWASP Password Storage Cheat Sheet). */
+  BCRYPT_COST: z.coerce.number().int().min(10).max(15).default(12),
+  /** Load the demo club when the database has no users. */
+  SEED_DEMO: booleanFromEnv.default(true),
+  /** Serve the built client from this folder (production mode). */
+  CLIENT_DIST: z.string().default('dist/client'),
+})
+
+export interface AppConfig {
+  env: 'development' | 'production' | 'test'
+  port: number
+  host: string
+  databasePath: string
+  jwtSecret: string
+  jwtTtl: string
+  bcryptCost: number
+  seedDemo: boolean
+  clientDist: string | null
+}
+
+/** Reads a kept secret, or makes one and keeps it, so tokens survive a restart. */
+function loadOrCreateSecret(databasePath: string): string {
+  const file = resolve(dirname(databasePath), 'jwt-secret')
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim()
+  mkdirSync(dirname(file), { recursive: true })
+  const secret = randomBytes(48).toString('base64url')
+  writeFileSync(file, secret + '\n', { mode: 0o600 })
+  return secret
+}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  const parsed = envSchema.safeParse(env)
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`)
+    throw new Error(`Bad configuration in environment variables:\n${lines.join('\n')}`)
+  }
+  const e = parsed.data
+  const databasePath = e.DATABASE_PATH === ':memory:' ? e.DATABASE_PATH : resolve(e.DATABASE_PATH)
+  return {
+    env: e.NODE_ENV,
+    port: e.PORT,
+    host: e.HOST,
+    databasePath,
+    jwtSecret: e.JWT_SECRET ?? loadOrCreateSecret(databasePath),
+    jwtTtl: e.JWT_TTL,
+    bcryptCost: e.BCRYPT_COST,
+    seedDemo: e.SEED_DEMO,
+    clientDist: e.NODE_ENV === 'production' ? resolve(e.CLIENT_DIST) : null,
+  }
+}

@@ -1,0 +1,85 @@
+import { mkdirSync } from 'node:fs'
+import { dirname } from 'node:path'
+import { Sequelize } from 'sequelize'
+import { ClubModel, CoachAthleteModel, InviteModel, UserModel, BodyWeightModel } from './models/user.model'
+import { EquipmentProfileModel, ExerciseModel } from './models/exercise.model'
+import { AssignmentModel, DayVersionModel, PlanDayModel, PlanModel, SlotModel } from './models/plan.model'
+import {
+  CommentModel, NextStepModel, ReviewModel, SessionModel, SetLogModel, UploadModel,
+} from './models/session.model'
+
+export * from './models/user.model'
+export * from './models/exercise.model'
+export * from './models/plan.model'
+export * from './models/session.model'
+
+/** Every association, in one place. */
+function associate() {
+  UserModel.belongsTo(ClubModel, { as: 'club', foreignKey: 'clubId' })
+  CoachAthleteModel.belongsTo(UserModel, { as: 'coach', foreignKey: 'coachId' })
+  CoachAthleteModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
+  InviteModel.belongsTo(UserModel, { as: 'coach', foreignKey: 'coachId' })
+  BodyWeightModel.belongsTo(UserModel, { as: 'user', foreignKey: 'userId' })
+
+  ExerciseModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' })
+  EquipmentProfileModel.belongsTo(UserModel, { as: 'user', foreignKey: 'userId' })
+
+  PlanModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' })
+  PlanModel.hasMany(PlanDayModel, { as: 'days', foreignKey: 'planId' })
+  PlanDayModel.belongsTo(PlanModel, { as: 'plan', foreignKey: 'planId' })
+  PlanDayModel.hasMany(DayVersionModel, { as: 'versions', foreignKey: 'planDayId' })
+  DayVersionModel.belongsTo(PlanDayModel, { as: 'day', foreignKey: 'planDayId' })
+  DayVersionModel.hasMany(SlotModel, { as: 'slots', foreignKey: 'dayVersionId' })
+  SlotModel.belongsTo(DayVersionModel, { as: 'version', foreignKey: 'dayVersionId' })
+  SlotModel.belongsTo(ExerciseModel, { as: 'exercise', foreignKey: 'exerciseId' })
+  AssignmentModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
+  AssignmentModel.belongsTo(PlanModel, { as: 'plan', foreignKey: 'planId' })
+
+  SessionModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
+  SessionModel.belongsTo(AssignmentModel, { as: 'assignment', foreignKey: 'assignmentId' })
+  SessionModel.belongsTo(PlanDayModel, { as: 'planDay', foreignKey: 'planDayId' })
+  SessionModel.hasMany(SetLogModel, { as: 'sets', foreignKey: 'sessionId' })
+  SetLogModel.belongsTo(SessionModel, { as: 'session', foreignKey: 'sessionId' })
+  SetLogModel.belongsTo(ExerciseModel, { as: 'exercise', foreignKey: 'exerciseId' })
+  SetLogModel.belongsTo(SlotModel, { as: 'slot', foreignKey: 'slotId' })
+  NextStepModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
+  NextStepModel.belongsTo(ExerciseModel, { as: 'exercise', foreignKey: 'exerciseId' })
+  NextStepModel.belongsTo(SlotModel, { as: 'slot', foreignKey: 'slotId' })
+  NextStepModel.belongsTo(SessionModel, { as: 'session', foreignKey: 'sessionId' })
+  ReviewModel.belongsTo(SessionModel, { as: 'session', foreignKey: 'sessionId' })
+  ReviewModel.belongsTo(UserModel, { as: 'coach', foreignKey: 'coachId' })
+  CommentModel.belongsTo(SessionModel, { as: 'session', foreignKey: 'sessionId' })
+  CommentModel.belongsTo(SetLogModel, { as: 'setLog', foreignKey: 'setLogId' })
+  CommentModel.belongsTo(UserModel, { as: 'author', foreignKey: 'authorId' })
+  UploadModel.belongsTo(SetLogModel, { as: 'setLog', foreignKey: 'setLogId' })
+  UploadModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' })
+}
+
+const models = [
+  ClubModel, UserModel, CoachAthleteModel, InviteModel, BodyWeightModel, ExerciseModel,
+  EquipmentProfileModel, PlanModel, PlanDayModel, DayVersionModel, SlotModel, AssignmentModel,
+  SessionModel, SetLogModel, NextStepModel, ReviewModel, CommentModel, UploadModel,
+]
+
+/**
+ * Opens the SQLite database (WAL journal, foreign keys on) and binds the models to it.
+ * The models are module-level classes, so one process holds one database at a time.
+ */
+export async function openDatabase(storage: string, options: { logging?: (sql: string) => void } = {}) {
+  if (storage !== ':memory:') mkdirSync(dirname(storage), { recursive: true })
+  const sequelize = new Sequelize({
+    dialect: 'sqlite',
+    storage,
+    logging: options.logging ?? false,
+    define: { underscored: true },
+    // One connection: SQLite serialises writes anyway, and PRAGMAs are per connection.
+    pool: { max: 1, min: 1, idle: 60_000 },
+  })
+  // SQLite-only settings belong here, in the database setup, and nowhere else.
+  await sequelize.query('PRAGMA journal_mode = WAL')
+  await sequelize.query('PRAGMA foreign_keys = ON')
+  await sequelize.query('PRAGMA busy_timeout = 5000')
+  for (const model of models) model.initModel(sequelize)
+  associate()
+  return sequelize
+}

@@ -1,0 +1,30 @@
+import { Umzug, type MigrationParams } from 'umzug'
+import { SequelizeStorage } from 'umzug'
+import type { QueryInterface, Sequelize } from 'sequelize'
+import * as initialSchema from './migrations/0001-initial-schema'
+import * as sessionRunner from './migrations/0002-session-runner'
+
+type Migration = {
+  name: string
+  up: (p: MigrationParams<QueryInterface>) => Promise<void>
+  down: (p: MigrationParams<QueryInterface>) => Promise<void>
+}
+
+/** Listed by hand (not globbed) so the same list works under tsx and in the bundle. */
+const migrations: Migration[] = [
+  { name: '0001-initial-schema', ...initialSchema },
+  { name: '0002-session-runner', ...sessionRunner },
+]
+
+export function createMigrator(sequelize: Sequelize) {
+  return new Umzug({
+    migrations,
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  })
+}
+
+export async function migrate(sequelize: Sequelize) {
+  await createMigrator(sequelize).up()
+}

@@ -1,0 +1,17 @@
+import { Router } from 'express'
+import { adminRoutes } from './admin.routes'
+import { athleteRoutes } from './athletes.routes'
+import { authRoutes, meRoutes } from './auth.routes'
+import { exerciseRoutes } from './exercises.routes'
+import { sessionRoutes } from './sessions.routes'
+import { trainRoutes } from './train.routes'
+
+/** Everything under /api. */
+export function apiRouter() {
+  const api = Router()
+  api.get('/health', (_req, res) => {
+    res.json({ ok: true })
+  })
+  api.use(authRoutes, meRoutes, trainRoutes, sessionRoutes, exerciseRoutes, athleteRoutes, adminRoutes)
+  return api
+}

@@ -1,0 +1,16 @@
+import { CoachAthleteModel, type UserModel } from '../db'
+import { AppError } from '../errors'
+
+export async function isCoachOf(coachId: number, athleteId: number): Promise<boolean> {
+  return (await CoachAthleteModel.count({ where: { coachId, athleteId } })) > 0
+}
+
+/**
+ * Ownership rule for an athlete's data: the lifter themself, a coach linked to them, or an admin.
+ * Answers 404 rather than 403 so that nobody learns which ids exist.
+ */
+export async function assertCanSeeAthlete(viewer: UserModel, athleteId: number, what = 'Athlete') {
+  if (viewer.role === 'admin' || viewer.id === athleteId) return
+  if (viewer.role === 'coach' && (await isCoachOf(viewer.id, athleteId))) return
+  throw AppError.notFound(what)
+}

@@ -1,0 +1,38 @@
+import { Op } from 'sequelize'
+import type { Exercise, ListExercisesQuery } from '@shared/schemas/exercise.schema'
+import { CoachAthleteModel, ExerciseModel, type UserModel } from '../db'
+
+export function toExercise(e: ExerciseModel): Exercise {
+  return {
+    id: e.id,
+    name: e.name,
+    pattern: e.pattern as Exercise['pattern'],
+    primaryMuscles: e.primaryMuscles as Exercise['primaryMuscles'],
+    secondaryMuscles: e.secondaryMuscles as Exercise['secondaryMuscles'],
+    equipmentKind: e.equipmentKind as Exercise['equipmentKind'],
+    loadStepKg: e.loadStepKg,
+    defaultRestSec: e.defaultRestSec,
+    custom: e.ownerId !== null,
+  }
+}
+
+/** The shared library plus the viewer's own exercises (a coach's) or their coaches' (a lifter's). */
+export async function listExercises(viewer: UserModel, query: ListExercisesQuery): Promise<Exercise[]> {
+  const owners = [viewer.id]
+  if (viewer.role === 'lifter') {
+    owners.push(...(await CoachAthleteModel.findAll({ where: { athleteId: viewer.id } })).map((l) => l.coachId))
+  }
+  const rows = await ExerciseModel.findAll({
+    where: {
+      [Op.or]: [{ ownerId: null }, { ownerId: owners }],
+      ...(query.pattern ? { pattern: query.pattern } : {}),
+      ...(query.equipment ? { equipmentKind: query.equipment } : {}),
+      ...(query.q ? { name: { [Op.like]: `%${query.q.replace(/[%_\\]/g, '')}%` } } : {}),
+    },
+    order: [['name', 'ASC']],
+  })
+  const exercises = rows.map(toExercise)
+  return query.muscle
+    ? exercises.filter((e) => e.primaryMuscles.includes(query.muscle!) || e.secondaryMuscles.includes(query.muscle!))
+    : exercises
+}

@@ -1,0 +1,31 @@
+import jwt from 'jsonwebtoken'
+import type { AppConfig } from '../config'
+import { AppError } from '../errors'
+
+interface TokenClaims {
+  sub: string
+  /** The user's token version when the token was made; a bump invalidates older tokens. */
+  ver: number
+}
+
+export function issueToken(config: AppConfig, user: { id: number; tokenVersion: number }): string {
+  return jwt.sign({ ver: user.tokenVersion }, config.jwtSecret, {
+    subject: String(user.id),
+    expiresIn: config.jwtTtl as jwt.SignOptions['expiresIn'],
+    algorithm: 'HS256',
+  })
+}
+
+export function verifyToken(config: AppConfig, token: string): { userId: number; version: number } {
+  try {
+    const claims = jwt.verify(token, config.jwtSecret, { algorithms: ['HS256'] }) as unknown as TokenClaims
+    const userId = Number(claims.sub)
+    if (!Number.isInteger(userId) || typeof claims.ver !== 'number') throw AppError.unauthenticated()
+    return { userId, version: claims.ver }
+  } catch (err) {
+    if (err instanceof jwt.TokenExpiredError) {
+      throw new AppError(401, 'token_expired', 'Your sign-in has expired: sign in again')
+    }
+    throw new AppError(401, 'invalid_token', 'Sign in again')
+  }
+}

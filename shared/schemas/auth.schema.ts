@@ -1,0 +1,52 @@
+import { z } from 'zod'
+import { roleSchema, unitSchema } from './common.schema'
+
+export const PASSWORD_MIN_LENGTH = 10
+
+export const emailSchema = z.string().trim().toLowerCase().pipe(z.email('Enter a valid e-mail address').max(254))
+
+export const passwordSchema = z
+  .string()
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters`)
+  .max(128, 'Use at most 128 characters')
+
+export const displayNameSchema = z.string().trim().min(1, 'Enter your name').max(80, 'Use at most 80 characters')
+
+/** Self-registration: lifters and coaches only; admins are made by an admin. */
+export const registerSchema = z.object({
+  name: displayNameSchema,
+  email: emailSchema,
+  password: passwordSchema,
+  role: z.enum(['lifter', 'coach']),
+  unit: unitSchema.default('kg'),
+})
+export type RegisterInput = z.infer<typeof registerSchema>
+
+export const signInSchema = z.object({
+  email: emailSchema,
+  password: z.string().min(1, 'Enter your password').max(128),
+})
+export type SignInInput = z.infer<typeof signInSchema>
+
+/** What the API tells a client about a user (never the password hash). */
+export const userSchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  email: z.string(),
+  role: roleSchema,
+  unit: unitSchema,
+  active: z.boolean(),
+  /** When the user confirmed the training cautions; null until the first sign-in shows them. */
+  cautionsAcknowledgedAt: z.string().nullable(),
+  createdAt: z.string(),
+})
+export type User = z.infer<typeof userSchema>
+
+export const authResponseSchema = z.object({ token: z.string(), user: userSchema })
+export type AuthResponse = z.infer<typeof authResponseSchema>
+
+export const updateProfileSchema = z
+  .object({ name: displayNameSchema, unit: unitSchema })
+  .partial()
+  .refine((v) => Object.keys(v).length > 0, 'Send at least one field')
+export type UpdateProfileInput = z.infer<typeof updateProfileSchema>

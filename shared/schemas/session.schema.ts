@@ -1,0 +1,54 @@
+import { z } from 'zod'
+
+export const setKindSchema = z.enum(['warmup', 'top', 'backoff', 'straight'])
+export type SetKind = z.infer<typeof setKindSchema>
+
+export const sessionStatusSchema = z.enum(['planned', 'in_progress', 'completed'])
+export type SessionStatus = z.infer<typeof sessionStatusSchema>
+
+export const versionLabelSchema = z.enum(['I', 'II'])
+export type VersionLabel = z.infer<typeof versionLabelSchema>
+
+/** One logged (or planned) set. Loads are stored in kilograms at full precision. */
+export const setLogSchema = z.object({
+  id: z.uuid(),
+  sessionId: z.number().int(),
+  exerciseId: z.number().int(),
+  exerciseName: z.string(),
+  position: z.number().int(),
+  kind: setKindSchema,
+  targetLoadKg: z.number().nullable(),
+  targetRepsMin: z.number().int().nullable(),
+  targetRepsMax: z.number().int().nullable(),
+  toFailure: z.boolean(),
+  loadKg: z.number().nullable(),
+  reps: z.number().int().nullable(),
+  rir: z.number().int().nullable(),
+  failure: z.boolean(),
+  note: z.string().nullable(),
+  loggedAt: z.string().nullable(),
+})
+export type SetLog = z.infer<typeof setLogSchema>
+
+export const sessionSummarySchema = z.object({
+  id: z.number().int(),
+  athleteId: z.number().int(),
+  dayName: z.string().nullable(),
+  version: versionLabelSchema.nullable(),
+  status: sessionStatusSchema,
+  startedAt: z.string().nullable(),
+  completedAt: z.string().nullable(),
+  workingSets: z.number().int(),
+  volumeKg: z.number(),
+})
+export type SessionSummary = z.infer<typeof sessionSummarySchema>
+
+export const sessionDetailSchema = sessionSummarySchema.extend({ sets: z.array(setLogSchema) })
+export type SessionDetail = z.infer<typeof sessionDetailSchema>
+
+export const listSessionsQuerySchema = z.object({
+  /** A coach or admin names the athlete; a lifter sees their own. */
+  athleteId: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+})
+export type ListSessionsQuery = z.infer<typeof listSessionsQuerySchema>

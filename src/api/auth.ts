@@ -1,0 +1,37 @@
+import { z } from 'zod'
+import {
+  authResponseSchema,
+  userSchema,
+  type AuthResponse,
+  type RegisterInput,
+  type SignInInput,
+  type UpdateProfileInput,
+  type User,
+} from '@shared/schemas/auth.schema'
+import { request } from './client'
+
+const userEnvelopeSchema = z.object({ user: userSchema })
+
+export function register(input: RegisterInput): Promise<AuthResponse> {
+  return request('POST', '/auth/register', { body: input, schema: authResponseSchema })
+}
+
+export function signIn(input: SignInInput): Promise<AuthResponse> {
+  return request('POST', '/auth/sign-in', { body: input, schema: authResponseSchema })
+}
+
+export async function signOut(): Promise<void> {
+  await request('POST', '/auth/sign-out')
+}
+
+export async function getMe(): Promise<User> {
+  return (await request('GET', '/me', { schema: userEnvelopeSchema })).user
+}
+
+export async function updateMe(input: UpdateProfileInput): Promise<User> {
+  return (await request('PATCH', '/me', { body: input, schema: userEnvelopeSchema })).user
+}
+
+export async function acknowledgeCautions(): Promise<User> {
+  return (await request('POST', '/me/cautions', { schema: userEnvelopeSchema })).user
+}

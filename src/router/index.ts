@@ -1,0 +1,158 @@
+import {
+  createRouter,
+  createWebHistory,
+  type RouteLocationRaw,
+  type RouteRecordRaw,
+  type Router,
+  type RouterHistory,
+} from 'vue-router'
+import type { Role } from '@shared/schemas/common.schema'
+import { ApiError } from '@/api/client'
+import { useSessionStore } from '@/stores/session'
+
+export type RouteName =
+  | 'home'
+  | 'sign-in'
+  | 'register'
+  | 'train'
+  | 'session-run'
+  | 'logbook'
+  | 'session-detail'
+  | 'plan'
+  | 'athletes'
+  | 'review-desk'
+  | 'plans'
+  | 'me'
+  | 'admin-users'
+  | 'not-found'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Shown in the browser tab as "<title> · Chalkline". */
+    title?: string
+    requiresAuth?: boolean
+    /** Roles allowed in; others go to their own home. Absent: every signed-in role. */
+    roles?: Role[]
+    /** Sign-in and register: a signed-in user goes home instead. */
+    guestOnly?: boolean
+    /** Full-screen pages without the bottom tab bar. */
+    hideTabBar?: boolean
+  }
+}
+
+const HOME_BY_ROLE: Record<Role, RouteName> = { lifter: 'train', coach: 'athletes', admin: 'admin-users' }
+
+export function homeRouteFor(role: Role): { name: RouteName } {
+  return { name: HOME_BY_ROLE[role] }
+}
+
+type NamedRoute = RouteRecordRaw & { name: RouteName }
+
+export const routes: NamedRoute[] = [
+  { path: '/', name: 'home', redirect: { name: 'train' } },
+  {
+    path: '/sign-in',
+    name: 'sign-in',
+    component: () => import('@/views/SignInView.vue'),
+    meta: { title: 'Sign in', guestOnly: true, hideTabBar: true },
+  },
+  {
+    path: '/register',
+    name: 'register',
+    component: () => import('@/views/RegisterView.vue'),
+    meta: { title: 'Create an account', guestOnly: true, hideTabBar: true },
+  },
+  {
+    path: '/train',
+    name: 'train',
+    component: () => import('@/views/TrainView.vue'),
+    meta: { title: 'Train', requiresAuth: true, roles: ['lifter'] },
+  },
+  {
+    path: '/train/session',
+    name: 'session-run',
+    component: () => import('@/views/SessionRunView.vue'),
+    meta: { title: 'Session', requiresAuth: true, roles: ['lifter'], hideTabBar: true },
+  },
+  {
+    path: '/logbook',
+    name: 'logbook',
+    component: () => import('@/views/LogbookView.vue'),
+    meta: { title: 'Logbook', requiresAuth: true, roles: ['lifter'] },
+  },
+  {
+    path: '/logbook/:id(\\d+)',
+    name: 'session-detail',
+    component: () => import('@/views/SessionDetailView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Session', requiresAuth: true, roles: ['lifter'] },
+  },
+  {
+    path: '/plan',
+    name: 'plan',
+    component: () => import('@/views/PlanView.vue'),
+    meta: { title: 'Plan', requiresAuth: true, roles: ['lifter'] },
+  },
+  {
+    path: '/athletes',
+    name: 'athletes',
+    component: () => import('@/views/AthletesView.vue'),
+    meta: { title: 'Athletes', requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/review',
+    name: 'review-desk',
+    component: () => import('@/views/ReviewDeskView.vue'),
+    meta: { title: 'Review desk', requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/plans',
+    name: 'plans',
+    component: () => import('@/views/PlansView.vue'),
+    meta: { title: 'Plans', requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/me',
+    name: 'me',
+    component: () => import('@/views/MeView.vue'),
+    meta: { title: 'Me', requiresAuth: true },
+  },
+  {
+    path: '/admin',
+    name: 'admin-users',
+    component: () => import('@/views/AdminUsersView.vue'),
+    meta: { title: 'Accounts', requiresAuth: true, roles: ['admin'] },
+  },
+  { path: '/:pathMatch(.*)*', name: 'not-found', redirect: { name: 'home' } },
+]
+
+/** Builds the router with its guards; tests pass a memory history. */
+export function createAppRouter(history: RouterHistory = createWebHistory(import.meta.env.BASE_URL)): Router {
+  const router = createRouter({ history, routes })
+
+  router.beforeEach(async (to): Promise<true | RouteLocationRaw> => {
+    const session = useSessionStore()
+
+    // A token from an earlier visit: learn who it belongs to before deciding.
+    if (session.isSignedIn && !session.user) {
+      try {
+        await session.fetchMe()
+      } catch (error) {
+        if (error instanceof ApiError && error.status === 401) session.clear()
+      }
+    }
+
+    const user = session.user
+    if (to.meta.guestOnly && user) return homeRouteFor(user.role)
+    if (!to.meta.requiresAuth) return true
+    if (!user) return { name: 'sign-in', query: { redirect: to.fullPath } }
+    if (to.meta.roles && !to.meta.roles.includes(user.role)) return homeRouteFor(user.role)
+    return true
+  })
+
+  router.afterEach((to) => {
+    document.title = to.meta.title ? `${to.meta.title} · Chalkline` : 'Chalkline'
+  })
+
+  return router
+}

@@ -1,0 +1,83 @@
+import { computed, ref } from 'vue'
+import { acceptHMRUpdate, defineStore } from 'pinia'
+import { useLocalStorage } from '@vueuse/core'
+import type { RegisterInput, SignInInput, UpdateProfileInput, User } from '@shared/schemas/auth.schema'
+import type { Role } from '@shared/schemas/common.schema'
+import * as authApi from '@/api/auth'
+import { setAuthToken } from '@/api/client'
+
+export const TOKEN_STORAGE_KEY = 'chalkline.token'
+
+/** The signed-in user and their token (the token survives a reload; the user is fetched again). */
+export const useSessionStore = defineStore('session', () => {
+  const token = useLocalStorage<string | null>(TOKEN_STORAGE_KEY, null)
+  const user = ref<User | null>(null)
+  setAuthToken(token.value)
+
+  const isSignedIn = computed(() => token.value !== null && token.value !== '')
+  const role = computed<Role | null>(() => user.value?.role ?? null)
+  const needsCautions = computed(() => user.value !== null && user.value.cautionsAcknowledgedAt === null)
+
+  function start(newToken: string, newUser: User) {
+    token.value = newToken
+    setAuthToken(newToken)
+    user.value = newUser
+  }
+
+  /** Forgets the session on this device only (used after sign-out and on a 401). */
+  function clear() {
+    token.value = null
+    setAuthToken(null)
+    user.value = null
+  }
+
+  async function signIn(input: SignInInput) {
+    const result = await authApi.signIn(input)
+    start(result.token, result.user)
+    return result.user
+  }
+
+  async function register(input: RegisterInput) {
+    const result = await authApi.register(input)
+    start(result.token, result.user)
+    return result.user
+  }
+
+  async function signOut() {
+    try {
+      await authApi.signOut()
+    } finally {
+      clear()
+    }
+  }
+
+  async function fetchMe() {
+    user.value = await authApi.getMe()
+    return user.value
+  }
+
+  async function acknowledgeCautions() {
+    user.value = await authApi.acknowledgeCautions()
+  }
+
+  async function updateProfile(input: UpdateProfileInput) {
+    user.value = await authApi.updateMe(input)
+  }
+
+  return {
+    token,
+    user,
+    isSignedIn,
+    role,
+    needsCautions,
+    signIn,
+    register,
+    signOut,
+    clear,
+    fetchMe,
+    acknowledgeCautions,
+    updateProfile,
+  }
+})
+
+if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useSessionStore, import.meta.hot))

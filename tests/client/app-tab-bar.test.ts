@@ -1,0 +1,46 @@
+import { beforeEach, describe, expect, it } from 'vitest'
+import { mount } from '@vue/test-utils'
+import { createPinia, setActivePinia } from 'pinia'
+import { createMemoryHistory } from 'vue-router'
+import type { Role } from '@shared/schemas/common.schema'
+import { createAppRouter } from '@/router'
+import AppTabBar from '@/components/app/AppTabBar.vue'
+
+beforeEach(() => setActivePinia(createPinia()))
+
+/** Mounts the tab bar after the router's first navigation (and its lazy view) has settled. */
+async function mountTabBar(role: Role) {
+  const router = createAppRouter(createMemoryHistory())
+  await router.push('/sign-in')
+  await router.isReady()
+  return mount(AppTabBar, { props: { role }, global: { plugins: [router] } })
+}
+
+async function tabLabels(role: Role) {
+  const wrapper = await mountTabBar(role)
+  const labels = wrapper.findAll('.van-tabbar-item').map((item) => item.text())
+  wrapper.unmount()
+  return labels
+}
+
+describe('AppTabBar', () => {
+  it('gives a lifter Train, Logbook, Plan and Me', async () => {
+    expect(await tabLabels('lifter')).toEqual(['Train', 'Logbook', 'Plan', 'Me'])
+  })
+
+  it('gives a coach Athletes, Review desk, Plans and Me', async () => {
+    expect(await tabLabels('coach')).toEqual(['Athletes', 'Review desk', 'Plans', 'Me'])
+  })
+
+  it('gives an admin Accounts and Me', async () => {
+    expect(await tabLabels('admin')).toEqual(['Accounts', 'Me'])
+  })
+
+  it('draws its own SVG icons instead of the icon font', async () => {
+    const wrapper = await mountTabBar('lifter')
+
+    expect(wrapper.findAll('svg.tab-icon')).toHaveLength(4)
+    expect(wrapper.find('.van-icon').exists()).toBe(false)
+    wrapper.unmount()
+  })
+})

@@ -1,0 +1,66 @@
+import { mkdirSync } from 'node:fs'
+import { join } from 'node:path'
+import type { Browser, BrowserContext } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { launchChromium, phoneContext } from '../helpers/browser'
+import { startBuiltServer } from '../helpers/server-process'
+import { DEMO_PASSWORD, DEMO_ACCOUNTS } from '../../server/db/seed/demo-accounts'
+
+let server: Awaited<ReturnType<typeof startBuiltServer>>
+let browser: Browser
+let context: BrowserContext
+const artifacts = join('test-results', 'screenshots')
+
+beforeAll(async () => {
+  server = await startBuiltServer()
+  mkdirSync(artifacts, { recursive: true })
+  browser = await launchChromium()
+  context = await phoneContext(browser)
+})
+
+afterAll(async () => {
+  await browser?.close()
+  await server?.stop()
+})
+
+describe('a demo lifter on a 390x844 phone', () => {
+  it('signs in, confirms the cautions once, and sees the Train tab with today\'s session', async () => {
+    const page = await context.newPage()
+    const requestsOffOrigin: string[] = []
+    page.on('request', (req) => {
+      if (!req.url().startsWith(server.baseUrl) && !req.url().startsWith('data:')) requestsOffOrigin.push(req.url())
+    })
+
+    await page.goto(server.baseUrl + '/')
+    await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
+
+    await page.getByLabel('E-mail').fill(DEMO_ACCOUNTS.lifterKg.email)
+    await page.getByLabel('Password').fill(DEMO_PASSWORD)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+
+    // First sign-in: the training cautions, confirmed with one button.
+    const understand = page.getByRole('button', { name: 'I understand' })
+    await understand.waitFor({ timeout: 15_000 })
+    await expect.poll(() => page.getByText(/spotter/i).first().isVisible()).toBe(true)
+    await understand.click()
+
+    await expect.poll(() => new URL(page.url()).pathname).toBe('/train')
+    await page.getByRole('heading', { name: 'Train' }).waitFor()
+    // Today's session from the demo plan, with its version.
+    await page.getByText(/version (I|II)/).first().waitFor()
+    await page.getByRole('button', { name: /Start session/ }).waitFor()
+    for (const tab of ['Train', 'Logbook', 'Plan', 'Me']) {
+      expect(await page.getByRole('tablist').getByText(tab, { exact: true }).isVisible()).toBe(true)
+    }
+    await page.screenshot({ path: join(artifacts, 'train-390x844.png') })
+
+    // Fonts and scripts all come from our own origin.
+    expect(requestsOffOrigin).toEqual([])
+
+    // The cautions are not shown again on the next visit.
+    await page.reload()
+    await page.getByRole('heading', { name: 'Train' }).waitFor()
+    expect(await page.getByRole('button', { name: 'I understand' }).count()).toBe(0)
+    await page.close()
+  })
+})

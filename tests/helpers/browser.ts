@@ -1,0 +1,22 @@
+import { chromium, type Browser } from 'playwright-core'
+
+export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium'
+
+/**
+ * Debian's Chromium, headless, with nothing reaching outside loopback. Playwright gives every
+ * launch a fresh temporary profile (its own --user-data-dir).
+ */
+export function launchChromium(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: CHROMIUM_PATH,
+    args: [
+      '--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking',
+      '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic',
+    ],
+  })
+}
+
+/** A phone-sized context: 390x844 with touch, as the product's thumb-zone rules assume. */
+export async function phoneContext(browser: Browser) {
+  return browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true, deviceScaleFactor: 2 })
+}

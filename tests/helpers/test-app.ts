@@ -1,0 +1,52 @@
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import bcrypt from 'bcryptjs'
+import request from 'supertest'
+import type { Sequelize } from 'sequelize'
+import { createApp } from '../../server/app'
+import { loadConfig, type AppConfig } from '../../server/config'
+import { CoachAthleteModel, openDatabase, UserModel } from '../../server/db'
+import { migrate } from '../../server/db/migrate'
+import type { Role } from '../../shared/schemas/common.schema'
+
+export const TEST_PASSWORD = 'correct-horse-battery'
+
+/** A real app over a fresh SQLite file in a temporary folder; `close()` removes it. */
+export async function createTestApp(env: Record<string, string> = {}) {
+  const dir = mkdtempSync(join(tmpdir(), 'chalkline-test-'))
+  const config: AppConfig = loadConfig({
+    NODE_ENV: 'test',
+    DATABASE_PATH: join(dir, 'test.sqlite'),
+    BCRYPT_COST: '10',
+    SEED_DEMO: 'false',
+    ...env,
+  })
+  const sequelize: Sequelize = await openDatabase(config.databasePath)
+  await migrate(sequelize)
+  const app = createApp(config)
+  let passwordHash: string | undefined
+
+  /** Makes a user straight in the database and signs them in through the API. */
+  async function userWithToken(role: Role, name = `${role}-${Math.random().toString(36).slice(2, 8)}`) {
+    passwordHash ??= await bcrypt.hash(TEST_PASSWORD, 10)
+    const user = await UserModel.create({
+      name, email: `${name}@example.test`, passwordHash, role, unit: 'kg', clubId: null, cautionsAcknowledgedAt: null,
+    })
+    const res = await request(app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
+    if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`)
+    return { user, token: res.body.token as string, auth: { Authorization: `Bearer ${res.body.token}` } }
+  }
+
+  async function linkCoach(coachId: number, athleteId: number) {
+    await CoachAthleteModel.create({ coachId, athleteId })
+  }
+
+  async function close() {
+    await sequelize.close()
+    rmSync(dir, { recursive: true, force: true })
+  }
+
+  return { app, config, sequelize, dir, userWithToken, linkCoach, close }
+}
+export type TestApp = Awaited<ReturnType<typeof createTestApp>>

@@ -1,0 +1,62 @@
+import { fileURLToPath, URL } from 'node:url'
+import { defineConfig } from 'vitest/config'
+import vue from '@vitejs/plugin-vue'
+import Components from 'unplugin-vue-components/vite'
+import { VantResolver } from '@vant/auto-import-resolver'
+
+const alias = {
+  '@': fileURLToPath(new URL('./src', import.meta.url)),
+  '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+}
+
+export default defineConfig({
+  plugins: [
+    vue(),
+    // Vant components are imported on demand; function APIs (showToast...) are imported by hand.
+    Components({ resolvers: [VantResolver()], dts: false }),
+  ],
+  resolve: { alias },
+  server: {
+    port: 5173,
+    proxy: { '/api': 'http://127.0.0.1:3000', '/dev': 'http://127.0.0.1:3000' },
+  },
+  build: {
+    outDir: 'dist/client',
+    manifest: true,
+    emptyOutDir: true,
+  },
+  test: {
+    // Vant ships .css imports inside its ES build: let Vite transform it.
+    server: { deps: { inline: ['vant'] } },
+    projects: [
+      {
+        extends: true,
+        test: { name: 'shared', include: ['tests/shared/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'server',
+          include: ['tests/server/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 20_000,
+        },
+      },
+      {
+        extends: true,
+        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'jsdom' },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 90_000,
+          hookTimeout: 90_000,
+        },
+      },
+    ],
+  },
+})
