@@ -28,18 +28,8 @@ import {
   type PerformedSet,
   type SlotRole,
 } from '../../shared/domain/index'
+import { mulberry32 } from '../../server/db/seed/prng'
 
-/** mulberry32: a small seeded PRNG, so every run benchmarks the same logbook. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 
 const DUMBBELLS: Equipment = { kind: 'dumbbell', unit: 'kg', pairs: Array.from({ length: 30 }, (_, i) => 2.5 * (i + 1)) }
 const CABLE: Equipment = { kind: 'stack', unit: 'kg', steps: Array.from({ length: 24 }, (_, i) => 5 * (i + 1)), addOns: [{ mass: 1.25, count: 2 }] }

@@ -23,17 +23,9 @@ import {
   rpeFromRir,
   wathen,
 } from '../../shared/domain/e1rm'
-import { EngineError } from '../../shared/domain/errors'
+import { engineErrorCode } from '../helpers/engine-error'
 
-const code = (fn: () => unknown): string | undefined => {
-  try {
-    fn()
-  } catch (e) {
-    if (e instanceof EngineError) return e.code
-    throw e
-  }
-  return undefined
-}
+const code = engineErrorCode
 
 describe('estimated 1RM formulas', () => {
   // Worked values, references.md §1 (computed from each published formula; compared in

@@ -19,20 +19,12 @@ import {
   type BarbellEquipment,
   type Equipment,
 } from '../../shared/domain/equipment'
-import { EngineError } from '../../shared/domain/errors'
 import { IWF_PLATE_COLOURS, plateColour, plateDiameterMm } from '../../shared/domain/plates'
 import { fromKg, kgToLb, lbToKg, toKg } from '../../shared/domain/units'
 import { arbEquipment, arbBarbell } from './arbitraries'
+import { engineErrorCode } from '../helpers/engine-error'
 
-const codeOf = (fn: () => unknown): string | undefined => {
-  try {
-    fn()
-  } catch (e) {
-    if (e instanceof EngineError) return e.code
-    throw e
-  }
-  return undefined
-}
+const codeOf = engineErrorCode
 const lb = lbToKg
 const sum = (xs: readonly number[]): number => xs.reduce((a, b) => a + b, 0)
 

@@ -1,20 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import { KG_COMPETITION_SET, LB_GYM_SET, isLoadable, type Equipment } from '../../shared/domain/equipment'
-import { EngineError } from '../../shared/domain/errors'
 import { planSlotSets } from '../../shared/domain/planned-sets'
 import { DEFAULT_SCHEMES, maxWorkingSets, SLOT_ROLES } from '../../shared/domain/schemes'
 import { lbToKg } from '../../shared/domain/units'
+import { engineErrorCode } from '../helpers/engine-error'
 
-const codeOf = (fn: () => unknown): string | undefined => {
-  try {
-    fn()
-  } catch (e) {
-    if (e instanceof EngineError) return e.code
-    throw e
-  }
-  return undefined
-}
+const codeOf = engineErrorCode
 const cable: Equipment = { kind: 'stack', unit: 'kg', steps: Array.from({ length: 20 }, (_, i) => (i + 1) * 5), addOns: [{ mass: 2.5, count: 1 }] }
 
 describe('planned sets for a slot', () => {

@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import { KG_COMPETITION_SET, LB_GYM_SET, isLoadable, stepUp, type Equipment } from '../../shared/domain/equipment'
-import { EngineError } from '../../shared/domain/errors'
 import { epley } from '../../shared/domain/e1rm'
 import {
   acsm2To10Pct,
@@ -16,17 +15,10 @@ import {
 } from '../../shared/domain/progression'
 import { maxWorkingSets, SLOT_ROLES } from '../../shared/domain/schemes'
 import { lbToKg } from '../../shared/domain/units'
+import { engineErrorCode } from '../helpers/engine-error'
 
 const lb = lbToKg
-const codeOf = (fn: () => unknown): string | undefined => {
-  try {
-    fn()
-  } catch (e) {
-    if (e instanceof EngineError) return e.code
-    throw e
-  }
-  return undefined
-}
+const codeOf = engineErrorCode
 const top = (loadKg: number, reps: number, repsMin = 6, repsMax = 9): PerformedSet => ({ kind: 'top', loadKg, reps, repsMin, repsMax })
 const fineSteps: Equipment = { kind: 'any', unit: 'kg', step: 0.5, min: 0 }
 

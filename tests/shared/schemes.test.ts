@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest'
 import { KG_COMPETITION_SET, LB_GYM_SET, isLoadable } from '../../shared/domain/equipment'
-import { EngineError } from '../../shared/domain/errors'
 import { epley } from '../../shared/domain/e1rm'
 import {
   DEFAULT_REST_SECONDS,
@@ -15,16 +14,9 @@ import {
   type SetScheme,
 } from '../../shared/domain/schemes'
 import { lbToKg } from '../../shared/domain/units'
+import { engineErrorCode } from '../helpers/engine-error'
 
-const codeOf = (fn: () => unknown): string | undefined => {
-  try {
-    fn()
-  } catch (e) {
-    if (e instanceof EngineError) return e.code
-    throw e
-  }
-  return undefined
-}
+const codeOf = engineErrorCode
 
 describe('default set schemes (common practice, no published source)', () => {
   it('gives a primary compound one top set of 6-9 to failure and one back-off of 9-12', () => {

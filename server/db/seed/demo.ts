@@ -17,23 +17,12 @@ import {
 import { DEMO_ACCOUNTS, DEMO_CLUB_NAME, DEMO_PASSWORD } from './demo-accounts'
 import { INTERMEDIATE_E1RM_KG, PUSH_PULL_LEGS, UPPER_LOWER, type DemoPlan } from './demo-plans'
 import { exerciseLibrary } from './exercise-library'
+import { mulberry32 } from './prng'
 
 export { DEMO_PASSWORD } from './demo-accounts'
 
 const DAY_MS = 24 * 60 * 60 * 1000
 export const DEMO_HISTORY_DAYS = 42
-
-/** Deterministic pseudo-random numbers (mulberry32) so every seed gives the same history. */
-function prng(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 
 /** How each invented demo lifter trains: strength relative to the table, weekly gain, attendance. */
 interface DemoLifterProfile {
@@ -93,7 +82,7 @@ async function simulateHistory(
   now: Date,
   transaction: Transaction,
 ) {
-  const random = prng(profile.seed)
+  const random = mulberry32(profile.seed)
   const exposures = new Map<number, Exposure[]>() // slot id -> exposures, oldest first
   const start = new Date(now.getTime() - DEMO_HISTORY_DAYS * DAY_MS)
   let rotationIndex = 0
