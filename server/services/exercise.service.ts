@@ -1,6 +1,7 @@
 import { Op } from 'sequelize'
-import type { Exercise, ListExercisesQuery } from '@shared/schemas/exercise.schema'
+import type { CreateExerciseInput, Exercise, ListExercisesQuery } from '@shared/schemas/exercise.schema'
 import { CoachAthleteModel, ExerciseModel, type UserModel } from '../db'
+import { AppError } from '../errors'
 
 export function toExercise(e: ExerciseModel): Exercise {
   return {
@@ -35,4 +36,11 @@ export async function listExercises(viewer: UserModel, query: ListExercisesQuery
   return query.muscle
     ? exercises.filter((e) => e.primaryMuscles.includes(query.muscle!) || e.secondaryMuscles.includes(query.muscle!))
     : exercises
+}
+
+/** A coach's own exercise, visible to them and their athletes. */
+export async function createExercise(owner: UserModel, input: CreateExerciseInput): Promise<Exercise> {
+  const clash = await ExerciseModel.findOne({ where: { name: input.name, [Op.or]: [{ ownerId: null }, { ownerId: owner.id }] } })
+  if (clash) throw AppError.conflict('exercise_exists', 'An exercise with this name is already in your library')
+  return toExercise(await ExerciseModel.create({ ...input, ownerId: owner.id }))
 }

@@ -33,7 +33,7 @@ describe('the demo club', () => {
   })
 
   it('has a push/pull/legs and an upper/lower plan, and a library of about 60 generic exercises', async () => {
-    expect((await PlanModel.findAll()).map((p) => p.name).sort()).toEqual(['Push / Pull / Legs', 'Upper / Lower'])
+    expect((await PlanModel.findAll()).map((p) => p.name).sort()).toEqual(['Legs / Push / Pull', 'Upper / Lower'])
     expect(await ExerciseModel.count()).toBeGreaterThanOrEqual(55)
   })
 
@@ -75,7 +75,7 @@ describe('the demo club', () => {
   it("shows the kg lifter today's session from the rotation, and the coach the three athletes", async () => {
     const today = await request(t.app).get('/api/train/today').set(await signIn(DEMO_ACCOUNTS.lifterKg.email))
     expect(today.status).toBe(200)
-    expect(today.body.plan.name).toBe('Push / Pull / Legs')
+    expect(today.body.plan.name).toBe('Legs / Push / Pull')
     expect(['Push', 'Pull', 'Legs', 'Rest']).toContain(today.body.day.name)
     expect(['I', 'II']).toContain(today.body.day.version)
     if (!today.body.day.isRest) expect(today.body.day.slots[0].scheme).toMatch(/top set 6-9 to failure · 1 back-off 9-12/)

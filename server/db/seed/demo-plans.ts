@@ -1,8 +1,9 @@
+import { PLAN_TEMPLATES, type PlanTemplate } from '@shared/domain/plan-templates'
 import type { SlotRole } from '@shared/domain/schemes'
 
 /**
- * The demo club's two plans. Each day has two versions built on the same skeleton of slot
- * roles with different exercises (version I / version II).
+ * The demo club's two plans, built from the split templates: the coach uses the push / pull /
+ * legs order that keeps the days heavy on the lower back apart, and upper / lower.
  */
 export interface DemoSlot {
   role: SlotRole
@@ -19,60 +20,24 @@ export interface DemoPlan {
   days: DemoDay[]
 }
 
-const p = (exercise: string): DemoSlot => ({ role: 'compound_primary', exercise })
-const a = (exercise: string): DemoSlot => ({ role: 'accessory', exercise })
-const i = (exercise: string): DemoSlot => ({ role: 'isolation', exercise })
-
-export const PUSH_PULL_LEGS: DemoPlan = {
-  name: 'Push / Pull / Legs',
-  splitKind: 'push_pull_legs',
-  days: [
-    {
-      name: 'Push',
+function fromTemplate(id: string, name: string): DemoPlan {
+  const template: PlanTemplate = PLAN_TEMPLATES.find((t) => t.id === id)!
+  return {
+    name,
+    splitKind: template.splitKind,
+    days: template.days.map((day) => ({
+      name: day.name,
+      isRest: day.isRest,
       versions: {
-        I: [p('Barbell bench press'), a('Seated dumbbell shoulder press'), a('Incline dumbbell press'), i('Dumbbell lateral raise'), i('Cable triceps pushdown')],
-        II: [p('Incline barbell bench press'), a('Machine shoulder press'), a('Machine chest press'), i('Cable lateral raise'), i('Overhead cable triceps extension')],
+        I: day.slots.map((s) => ({ role: s.role, exercise: s.I })),
+        II: day.slots.map((s) => ({ role: s.role, exercise: s.II })),
       },
-    },
-    {
-      name: 'Pull',
-      versions: {
-        I: [p('Barbell bent-over row'), a('Wide-grip lat pulldown'), a('Chest-supported dumbbell row'), i('Face pull'), i('Barbell curl')],
-        II: [p('Conventional deadlift'), a('Close-grip lat pulldown'), a('Seated cable row'), i('Reverse cable fly'), i('Hammer curl')],
-      },
-    },
-    {
-      name: 'Legs',
-      versions: {
-        I: [p('Back squat'), a('Romanian deadlift'), a('Leg press'), i('Seated leg curl'), i('Standing calf raise')],
-        II: [p('Front squat'), a('Dumbbell Romanian deadlift'), a('Hack squat machine'), i('Lying leg curl'), i('Seated calf raise')],
-      },
-    },
-    { name: 'Rest', isRest: true },
-  ],
+    })),
+  }
 }
 
-export const UPPER_LOWER: DemoPlan = {
-  name: 'Upper / Lower',
-  splitKind: 'upper_lower',
-  days: [
-    {
-      name: 'Upper',
-      versions: {
-        I: [p('Barbell bench press'), p('Barbell bent-over row'), a('Seated dumbbell shoulder press'), a('Wide-grip lat pulldown'), i('Dumbbell lateral raise'), i('Barbell curl')],
-        II: [p('Standing overhead press'), p('Machine chest-supported row'), a('Incline dumbbell press'), a('Close-grip lat pulldown'), i('Cable lateral raise'), i('Cable triceps pushdown')],
-      },
-    },
-    {
-      name: 'Lower',
-      versions: {
-        I: [p('Back squat'), a('Romanian deadlift'), a('Leg press'), i('Seated leg curl'), i('Standing calf raise')],
-        II: [p('Conventional deadlift'), a('Hack squat machine'), a('Walking dumbbell lunge'), i('Lying leg curl'), i('Seated calf raise')],
-      },
-    },
-    { name: 'Rest', isRest: true },
-  ],
-}
+export const PUSH_PULL_LEGS = fromTemplate('ppl_spaced', 'Legs / Push / Pull')
+export const UPPER_LOWER = fromTemplate('upper_lower', 'Upper / Lower')
 
 /**
  * Estimated 1RM (kg) of an invented intermediate lifter on each exercise at the start of the
@@ -88,5 +53,6 @@ export const INTERMEDIATE_E1RM_KG: Record<string, number> = {
   'Seated cable row': 80, 'Face pull': 35, 'Reverse cable fly': 20, 'Barbell curl': 40, 'Hammer curl': 17,
   'Back squat': 105, 'Front squat': 85, 'Romanian deadlift': 100, 'Dumbbell Romanian deadlift': 36,
   'Leg press': 200, 'Hack squat machine': 140, 'Walking dumbbell lunge': 26, 'Seated leg curl': 65,
-  'Lying leg curl': 55, 'Standing calf raise': 120, 'Seated calf raise': 80,
+  'Lying leg curl': 55, 'Standing calf raise': 120, 'Seated calf raise': 80, 'Cable curl': 32,
+  'Rear-foot-elevated split squat': 22,
 }

@@ -1,0 +1,106 @@
+import { describe, expect, it } from 'vitest'
+import { checkPlan, defaultTrainingDaysPerWeek, type CheckDay } from '../../shared/domain/plan-checks'
+import { lowerBackDaysBackToBack, PLAN_TEMPLATES, type PlanTemplate } from '../../shared/domain/plan-templates'
+import { DEFAULT_SCHEMES } from '../../shared/domain/schemes'
+import { exerciseLibrary } from '../../server/db/seed/exercise-library'
+
+const template = (id: string) => PLAN_TEMPLATES.find((t) => t.id === id)!
+
+/** A template with the default schemes and the library's muscles, as the plan builder sees it. */
+function asCheckDays(t: PlanTemplate): CheckDay[] {
+  return t.days.map((day) => ({
+    name: day.name,
+    isRest: day.isRest,
+    versions: {
+      I: day.slots.map((s) => slotFor(s.role, s.I)),
+      II: day.slots.map((s) => slotFor(s.role, s.II)),
+    },
+  }))
+}
+function slotFor(role: keyof typeof DEFAULT_SCHEMES, name: string) {
+  const exercise = exerciseLibrary.find((e) => e.name === name)
+  if (!exercise) throw new Error(`not in the library: ${name}`)
+  return { role, exerciseName: name, workingSets: DEFAULT_SCHEMES[role].sets.length, primaryMuscles: exercise.primaryMuscles, secondaryMuscles: exercise.secondaryMuscles }
+}
+const muscle = (checks: ReturnType<typeof checkPlan>, name: string) => checks.muscles.find((m) => m.muscle === name)!
+
+describe('split templates', () => {
+  it('name only exercises of the library, with the same movement pattern in version I and version II', () => {
+    for (const t of PLAN_TEMPLATES) {
+      for (const day of t.days) {
+        for (const s of day.slots) {
+          const I = exerciseLibrary.find((e) => e.name === s.I)
+          const II = exerciseLibrary.find((e) => e.name === s.II)
+          expect(I?.pattern, `${t.id} ${s.I}`).toBe(s.pattern)
+          expect(II?.pattern, `${t.id} ${s.II}`).toBe(s.pattern)
+          expect(s.I).not.toBe(s.II)
+        }
+      }
+    }
+  })
+
+  it('offers a push/pull/legs order that keeps the lower-back-heavy days apart, unlike the plain one', () => {
+    expect(lowerBackDaysBackToBack(template('ppl_twice').days)).toBe(true)
+    expect(lowerBackDaysBackToBack(template('ppl_spaced').days)).toBe(false)
+  })
+})
+
+// Weekly hard sets and frequency, counted by hand from the templates with the default schemes
+// (primary compound 2 working sets, accessory 3, isolation 2; primary muscle 1 set, secondary
+// 0.5 — common practice, no published source). Thresholds: 10+ weekly sets (Schoenfeld,
+// Ogborn, Krieger 2017, J Sports Sci 35(11)); at least twice a week (Schoenfeld, Ogborn,
+// Krieger 2016, Sports Med 46(11)).
+describe('weekly volume and frequency', () => {
+  it('push/pull/legs twice a week: six sessions, chest 10 hard sets on 2 days', () => {
+    const checks = checkPlan(asCheckDays(template('ppl_twice')))
+    expect(checks.trainingDaysPerWeek).toBe(6)
+    // Push I: bench 2 + incline dumbbell press 3; Push II: incline bench 2 + machine press 3.
+    expect(muscle(checks, 'chest')).toEqual({ muscle: 'chest', weeklySets: 10, weeklyFrequency: 2 })
+    // Lats are a primary mover on Pull I and Pull II.
+    expect(muscle(checks, 'lats').weeklyFrequency).toBe(2)
+    expect(checks.warnings.filter((w) => w.code === 'MUSCLE_UNDER_TWICE_A_WEEK' && w.values.muscle === 'chest')).toEqual([])
+  })
+
+  it('legs/push/pull with a rest day: 5.25 sessions a week, so chest drops under twice a week and is flagged', () => {
+    const checks = checkPlan(asCheckDays(template('ppl_spaced')))
+    expect(checks.trainingDaysPerWeek).toBe(5.3) // 7 x 3 / 4 = 5.25, shown to one decimal
+    // 10 chest sets per rotation of 6 sessions, 5.25 sessions a week: 10 x 5.25 / 6 = 8.75.
+    expect(muscle(checks, 'chest').weeklySets).toBe(8.8)
+    expect(muscle(checks, 'chest').weeklyFrequency).toBe(1.8)
+    const codes = checks.warnings.filter((w) => w.values.muscle === 'chest').map((w) => w.code).sort()
+    expect(codes).toEqual(['MUSCLE_LOW_VOLUME', 'MUSCLE_UNDER_TWICE_A_WEEK'])
+  })
+
+  it('assumes one plan day per calendar day when the plan has rest days, else two laps a week up to six', () => {
+    const days = asCheckDays(template('upper_lower'))
+    expect(defaultTrainingDaysPerWeek(days)).toBeCloseTo((7 * 2) / 3, 10)
+    expect(defaultTrainingDaysPerWeek(asCheckDays(template('ppl_twice')))).toBe(6)
+  })
+
+  it('warns about a primary compound above 3 working sets and any movement above 4', () => {
+    const days: CheckDay[] = [
+      {
+        name: 'Heavy',
+        isRest: false,
+        versions: {
+          I: [
+            { role: 'compound_primary', exerciseName: 'Back squat', workingSets: 4, primaryMuscles: ['quads'], secondaryMuscles: [] },
+            { role: 'accessory', exerciseName: 'Leg press', workingSets: 5, primaryMuscles: ['quads'], secondaryMuscles: [] },
+          ],
+          II: [],
+        },
+      },
+    ]
+    const codes = checkPlan(days).warnings.map((w) => w.code)
+    expect(codes).toContain('PRIMARY_COMPOUND_OVER_CAP')
+    expect(codes).toContain('MOVEMENT_OVER_CAP')
+  })
+
+  it('flags very high weekly volume', () => {
+    const many = { role: 'accessory' as const, exerciseName: 'Leg press', workingSets: 4, primaryMuscles: ['quads'], secondaryMuscles: [] }
+    const day: CheckDay = { name: 'Legs', isRest: false, versions: { I: [many, many, many, many], II: [many, many, many, many] } }
+    const checks = checkPlan([day], 6)
+    expect(muscle(checks, 'quads').weeklySets).toBe(96)
+    expect(checks.warnings.map((w) => w.code)).toContain('MUSCLE_VERY_HIGH_VOLUME')
+  })
+})
