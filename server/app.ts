@@ -2,17 +2,26 @@ import { existsSync } from 'node:fs'
 import { join } from 'node:path'
 import express from 'express'
 import type { AppConfig } from './config'
+import type { Mailer } from './mail/mailer'
 import { errorHandler, notFound } from './middleware/error-handler'
 import { apiRouter } from './routes'
+import { devRoutes } from './routes/dev.routes'
+
+export interface AppDeps {
+  mailer: Mailer
+}
 
 /** Builds the Express app; never listens (server/index.ts does). */
-export function createApp(config: AppConfig) {
+export function createApp(config: AppConfig, deps: AppDeps) {
   const app = express()
   app.locals.config = config
+  app.locals.mailer = deps.mailer
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')
   app.use(express.json({ limit: '100kb' }))
 
+  // The local outbox exists only while no real SMTP server is configured.
+  if (config.mail.smtp === null) app.use(devRoutes(config))
   app.use('/api', apiRouter(), notFound)
 
   // Production: the same process serves the built client; unknown paths get the app shell.

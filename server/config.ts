@@ -21,6 +21,17 @@ const envSchema = z.object({
   SEED_DEMO: booleanFromEnv.default(true),
   /** Serve the built client from this folder (production mode). */
   CLIENT_DIST: z.string().default('dist/client'),
+  /** Where links in e-mails point; defaults to http://localhost:<PORT>. */
+  APP_URL: z.url().optional(),
+  /** A real SMTP server; without SMTP_HOST the app starts its own local fake SMTP server. */
+  SMTP_HOST: z.string().min(1).optional(),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(587),
+  SMTP_SECURE: booleanFromEnv.default(false),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  MAIL_FROM: z.string().default('Chalkline <no-reply@chalkline.localhost>'),
+  /** How long an invitation link works. */
+  INVITE_TTL_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(24 * 7),
 })
 
 export interface AppConfig {
@@ -33,6 +44,14 @@ export interface AppConfig {
   bcryptCost: number
   seedDemo: boolean
   clientDist: string | null
+  appUrl: string
+  mail: {
+    from: string
+    /** null: start the local fake SMTP server and keep messages in `outboxDir`. */
+    smtp: { host: string; port: number; secure: boolean; user?: string; pass?: string } | null
+    outboxDir: string
+  }
+  inviteTtlHours: number
 }
 
 /** Reads a kept secret, or makes one and keeps it, so tokens survive a restart. */
@@ -63,5 +82,14 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     bcryptCost: e.BCRYPT_COST,
     seedDemo: e.SEED_DEMO,
     clientDist: e.NODE_ENV === 'production' ? resolve(e.CLIENT_DIST) : null,
+    appUrl: (e.APP_URL ?? `http://localhost:${e.PORT}`).replace(/\/$/, ''),
+    mail: {
+      from: e.MAIL_FROM,
+      smtp: e.SMTP_HOST
+        ? { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, pass: e.SMTP_PASS }
+        : null,
+      outboxDir: databasePath === ':memory:' ? resolve('data/outbox') : resolve(dirname(databasePath), 'outbox'),
+    },
+    inviteTtlHours: e.INVITE_TTL_HOURS,
   }
 }

@@ -4,6 +4,8 @@ import { loadConfig } from './config'
 import { openDatabase } from './db'
 import { migrate } from './db/migrate'
 import { DEMO_PASSWORD, seedDemoIfEmpty } from './db/seed/demo'
+import { startFakeSmtp } from './mail/fake-smtp'
+import { createMailer } from './mail/mailer'
 
 /** The only file with side effects: read config, migrate, seed on first start, listen. */
 async function main() {
@@ -13,14 +15,17 @@ async function main() {
   if (config.seedDemo && (await seedDemoIfEmpty(config))) {
     console.log(`Loaded the demo club (password for every demo account: ${DEMO_PASSWORD}).`)
   }
-  const app = createApp(config)
+  // Without a real SMTP server configured, e-mail goes to a local fake one (see /dev/outbox).
+  const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.outboxDir)
+  const app = createApp(config, { mailer: createMailer(config, fakeSmtp?.port) })
   const server: Server = app.listen(config.port, config.host, () => {
     const address = server.address()
     const port = typeof address === 'object' && address ? address.port : config.port
     console.log(`Chalkline ${config.env} server on http://localhost:${port}`)
+    if (fakeSmtp) console.log(`E-mail goes to the local outbox: http://localhost:${port}/dev/outbox`)
   })
   const stop = () => {
-    server.close(() => void sequelize.close().then(() => process.exit(0)))
+    server.close(() => void Promise.all([sequelize.close(), fakeSmtp?.close()]).then(() => process.exit(0)))
   }
   process.on('SIGTERM', stop)
   process.on('SIGINT', stop)

@@ -1,7 +1,7 @@
 import { mkdirSync } from 'node:fs'
 import { dirname } from 'node:path'
 import { Sequelize } from 'sequelize'
-import { ClubModel, CoachAthleteModel, InviteModel, UserModel, BodyWeightModel } from './models/user.model'
+import { ClubModel, CoachAthleteModel, InviteModel, UserModel, BodyWeightModel, PasswordResetModel } from './models/user.model'
 import { EquipmentProfileModel, ExerciseModel } from './models/exercise.model'
 import { AssignmentModel, DayVersionModel, PlanDayModel, PlanModel, SlotModel } from './models/plan.model'
 import {
@@ -20,6 +20,7 @@ function associate() {
   CoachAthleteModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
   InviteModel.belongsTo(UserModel, { as: 'coach', foreignKey: 'coachId' })
   BodyWeightModel.belongsTo(UserModel, { as: 'user', foreignKey: 'userId' })
+  PasswordResetModel.belongsTo(UserModel, { as: 'user', foreignKey: 'userId' })
 
   ExerciseModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' })
   EquipmentProfileModel.belongsTo(UserModel, { as: 'user', foreignKey: 'userId' })
@@ -56,7 +57,7 @@ function associate() {
 }
 
 const models = [
-  ClubModel, UserModel, CoachAthleteModel, InviteModel, BodyWeightModel, ExerciseModel,
+  ClubModel, UserModel, CoachAthleteModel, InviteModel, BodyWeightModel, PasswordResetModel, ExerciseModel,
   EquipmentProfileModel, PlanModel, PlanDayModel, DayVersionModel, SlotModel, AssignmentModel,
   SessionModel, SetLogModel, NextStepModel, ReviewModel, CommentModel, UploadModel,
 ]

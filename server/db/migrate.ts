@@ -3,6 +3,7 @@ import { SequelizeStorage } from 'umzug'
 import type { QueryInterface, Sequelize } from 'sequelize'
 import * as initialSchema from './migrations/0001-initial-schema'
 import * as sessionRunner from './migrations/0002-session-runner'
+import * as passwordResets from './migrations/0003-password-resets'
 
 type Migration = {
   name: string
@@ -14,6 +15,7 @@ type Migration = {
 const migrations: Migration[] = [
   { name: '0001-initial-schema', ...initialSchema },
   { name: '0002-session-runner', ...sessionRunner },
+  { name: '0003-password-resets', ...passwordResets },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

@@ -37,3 +37,9 @@ export function requireRole(...roles: Role[]): RequestHandler {
     next()
   }
 }
+
+/** Signs the user in when a token is sent; lets the request through without one. */
+export const authenticateIfToken: RequestHandler = async (req, res, next) => {
+  if (!req.get('authorization')) return next()
+  return authenticate(req, res, next)
+}

@@ -3,6 +3,7 @@ import { adminRoutes } from './admin.routes'
 import { athleteRoutes } from './athletes.routes'
 import { authRoutes, meRoutes } from './auth.routes'
 import { exerciseRoutes } from './exercises.routes'
+import { inviteRoutes } from './invites.routes'
 import { planRoutes } from './plans.routes'
 import { sessionRoutes } from './sessions.routes'
 import { trainRoutes } from './train.routes'
@@ -13,6 +14,6 @@ export function apiRouter() {
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })
-  api.use(authRoutes, meRoutes, trainRoutes, sessionRoutes, exerciseRoutes, planRoutes, athleteRoutes, adminRoutes)
+  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, exerciseRoutes, planRoutes, athleteRoutes, adminRoutes)
   return api
 }

@@ -1,10 +1,16 @@
 import bcrypt from 'bcryptjs'
 import type { RegisterInput, SignInInput, UpdateProfileInput } from '@shared/schemas/auth.schema'
 import type { AppConfig } from '../config'
-import { UserModel } from '../db'
+import { PasswordResetModel, UserModel } from '../db'
 import { AppError } from '../errors'
+import type { Mailer } from '../mail/mailer'
+import { passwordResetMail } from '../mail/templates'
+import { hashLinkToken, newLinkToken } from './token-hash'
 import { issueToken } from './token.service'
 import { toUser } from './presenters'
+
+/** A password reset link works for one hour. */
+const RESET_TTL_MS = 3_600_000
 
 // Compared against when the e-mail is unknown, so a wrong e-mail costs as long as a wrong password.
 let unknownUserHash: Promise<string> | undefined
@@ -46,4 +52,32 @@ export async function updateProfile(user: UserModel, input: UpdateProfileInput) 
 export async function acknowledgeCautions(user: UserModel, now = new Date()) {
   if (!user.cautionsAcknowledgedAt) await user.update({ cautionsAcknowledgedAt: now })
   return toUser(user)
+}
+
+/** Always answers the same way, so nobody learns which e-mails have accounts. */
+export async function requestPasswordReset(config: AppConfig, mailer: Mailer, email: string, now = new Date()) {
+  const user = await UserModel.findOne({ where: { email } })
+  if (!user || !user.active) return
+  const { token, hash } = newLinkToken()
+  const expiresAt = new Date(now.getTime() + RESET_TTL_MS)
+  await PasswordResetModel.create({ userId: user.id, tokenHash: hash, expiresAt, usedAt: null })
+  await mailer.send(passwordResetMail(user.email, user.name, `${config.appUrl}/reset-password/${token}`, expiresAt))
+}
+
+/** Sets the new password once per link and signs the user out everywhere else. */
+export async function resetPassword(config: AppConfig, token: string, password: string, now = new Date()) {
+  return PasswordResetModel.sequelize!.transaction(async (transaction) => {
+    const reset = await PasswordResetModel.findOne({ where: { tokenHash: hashLinkToken(token) }, transaction })
+    if (!reset || reset.usedAt || reset.expiresAt.getTime() <= now.getTime()) {
+      throw new AppError(410, 'reset_link_invalid', 'This link has expired or was already used: ask for a new one')
+    }
+    const user = await UserModel.findByPk(reset.userId, { transaction })
+    if (!user) throw AppError.notFound('User')
+    await reset.update({ usedAt: now }, { transaction })
+    await user.update(
+      { passwordHash: await bcrypt.hash(password, config.bcryptCost), tokenVersion: user.tokenVersion + 1 },
+      { transaction },
+    )
+    return { token: issueToken(config, user), user: toUser(user) }
+  })
 }

@@ -8,6 +8,9 @@ import { createApp } from '../../server/app'
 import { loadConfig, type AppConfig } from '../../server/config'
 import { CoachAthleteModel, openDatabase, UserModel } from '../../server/db'
 import { migrate } from '../../server/db/migrate'
+import { startFakeSmtp } from '../../server/mail/fake-smtp'
+import { createMailer } from '../../server/mail/mailer'
+import { readOutbox } from '../../server/mail/outbox'
 import type { Role } from '../../shared/schemas/common.schema'
 
 export const TEST_PASSWORD = 'correct-horse-battery'
@@ -24,7 +27,10 @@ export async function createTestApp(env: Record<string, string> = {}) {
   })
   const sequelize: Sequelize = await openDatabase(config.databasePath)
   await migrate(sequelize)
-  const app = createApp(config)
+  // E-mail goes through nodemailer to a fake SMTP server on loopback, as in development.
+  const fakeSmtp = await startFakeSmtp(config.mail.outboxDir)
+  const mailer = createMailer(config, fakeSmtp.port)
+  const app = createApp(config, { mailer })
   let passwordHash: string | undefined
 
   /** Makes a user straight in the database and signs them in through the API. */
@@ -43,10 +49,11 @@ export async function createTestApp(env: Record<string, string> = {}) {
   }
 
   async function close() {
+    await fakeSmtp.close()
     await sequelize.close()
     rmSync(dir, { recursive: true, force: true })
   }
 
-  return { app, config, sequelize, dir, userWithToken, linkCoach, close }
+  return { app, config, sequelize, dir, mailer, userWithToken, linkCoach, close, outbox: () => readOutbox(config.mail.outboxDir) }
 }
 export type TestApp = Awaited<ReturnType<typeof createTestApp>>

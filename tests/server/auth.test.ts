@@ -112,7 +112,7 @@ describe('tokens', () => {
 
   it('expires tokens after the configured time', async () => {
     // A second app over the same database, configured with a one-second token lifetime.
-    const shortLived = createApp({ ...t.config, jwtTtl: '1s' })
+    const shortLived = createApp({ ...t.config, jwtTtl: '1s' }, { mailer: t.mailer })
     const { user } = await t.userWithToken('lifter')
     const signIn = await request(shortLived).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
     const auth = { Authorization: `Bearer ${signIn.body.token}` }

@@ -131,3 +131,30 @@ export class BodyWeightModel extends Model<
     )
   }
 }
+
+export class PasswordResetModel extends Model<
+  InferAttributes<PasswordResetModel>,
+  InferCreationAttributes<PasswordResetModel>
+> {
+  declare id: CreationOptional<number>
+  declare userId: ForeignKey<number>
+  declare tokenHash: string
+  declare expiresAt: Date
+  declare usedAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+
+  static initModel(sequelize: Sequelize) {
+    PasswordResetModel.init(
+      {
+        id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+        tokenHash: { type: DataTypes.STRING(64), allowNull: false, unique: true },
+        expiresAt: { type: DataTypes.DATE, allowNull: false },
+        usedAt: { type: DataTypes.DATE, allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'password_resets', underscored: true },
+    )
+  }
+}

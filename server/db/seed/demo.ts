@@ -222,7 +222,7 @@ export async function resetAndSeedDemo(config: AppConfig, now = new Date()) {
   const tables = [
     'body_weights', 'uploads', 'comments', 'reviews', 'next_steps', 'set_logs', 'sessions', 'assignments',
     'slots', 'day_versions', 'plan_days', 'plans', 'equipment_profiles', 'exercises', 'invites',
-    'coach_athletes', 'users', 'clubs',
+    'coach_athletes', 'password_resets', 'users', 'clubs',
   ]
   await sequelize.transaction(async (transaction) => {
     for (const table of tables) await sequelize.getQueryInterface().bulkDelete(table, {}, { transaction })

@@ -1,0 +1,33 @@
+import { z } from 'zod'
+import { displayNameSchema, emailSchema, passwordSchema } from './auth.schema'
+
+export const createInviteSchema = z.object({ name: displayNameSchema, email: emailSchema })
+export type CreateInviteInput = z.infer<typeof createInviteSchema>
+
+export const inviteTokenParamsSchema = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not an invitation link') })
+
+/** A new lifter sets a password; an existing one accepts while signed in and sends no body fields. */
+export const acceptInviteSchema = z.object({ password: passwordSchema.optional(), name: displayNameSchema.optional() })
+export type AcceptInviteInput = z.infer<typeof acceptInviteSchema>
+
+export const inviteSchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  email: z.string(),
+  expiresAt: z.string(),
+  acceptedAt: z.string().nullable(),
+})
+export type Invite = z.infer<typeof inviteSchema>
+
+/** What the invitation page shows before accepting. */
+export const invitePreviewSchema = z.object({
+  coachName: z.string(),
+  name: z.string(),
+  email: z.string(),
+  /** An account with this e-mail exists: the invitee signs in to accept. */
+  existingAccount: z.boolean(),
+})
+export type InvitePreview = z.infer<typeof invitePreviewSchema>
+
+export const requestPasswordResetSchema = z.object({ email: emailSchema })
+export const resetPasswordSchema = z.object({ password: passwordSchema })
