@@ -1,8 +1,7 @@
 /**
  * Records a session sets against the lifter's history on one exercise:
- * - a rep record: a set no earlier set matches or beats, i.e. no earlier set had at least
- *   this load AND at least this many reps (more reps at this load, or this load for the
- *   first time above everything before);
+ * - a rep record: more reps at a load than any earlier set at that load or heavier (a load
+ *   never lifted before is not a rep record: there is no earlier number to beat at it);
  * - an estimated-1RM record: the session's best estimate above every earlier one.
  * A first session on an exercise sets no records: there is nothing to beat yet.
  */
@@ -18,8 +17,8 @@ export interface RecordFound {
   loadKg: number
   reps: number
   e1rmKg: number
-  /** Best reps earlier at this load or heavier (rep record; null when the load is new), or the best earlier estimate. */
-  previous: number | null
+  /** Best reps earlier at this load or heavier (rep record), or the best earlier estimate (estimated-1RM record). */
+  previous: number
 }
 
 const EPS = 1e-9
@@ -48,19 +47,19 @@ export function sessionRecords(done: readonly LoadReps[], history: readonly Load
   for (const set of done) {
     if (set.reps <= 0 || set.loadKg <= 0) continue
     const dominated = (other: LoadReps) => other.loadKg >= set.loadKg - EPS && other.reps >= set.reps
-    if (earlier.some(dominated) || counted.some(dominated)) continue
+    const atOrAbove = earlier.filter((h) => h.loadKg >= set.loadKg - EPS)
+    if (atOrAbove.length === 0 || earlier.some(dominated) || counted.some(dominated)) continue
     // Drop records of this session that this set beats outright, so each is listed once.
     for (let i = records.length - 1; i >= 0; i--) {
       const r = records[i]
       if (r.kind === 'rep_record' && set.loadKg >= r.loadKg - EPS && set.reps >= r.reps) records.splice(i, 1)
     }
-    const atOrAbove = earlier.filter((h) => h.loadKg >= set.loadKg - EPS)
     records.push({
       kind: 'rep_record',
       loadKg: set.loadKg,
       reps: set.reps,
       e1rmKg: estimateOneRepMax(set.loadKg, set.reps, { formula }).e1rm,
-      previous: atOrAbove.length ? Math.max(...atOrAbove.map((h) => h.reps)) : null,
+      previous: Math.max(...atOrAbove.map((h) => h.reps)),
     })
     counted.push(set)
   }

@@ -1,6 +1,9 @@
 import { todaySchema, type Today } from '@shared/schemas/train.schema'
+import { localDay } from '@/utils/dates'
 import { request } from './client'
+import type { LocalDay } from './run'
 
-export function getToday(): Promise<Today> {
-  return request('GET', '/train/today', { schema: todaySchema })
+/** What is next in the plan, by the lifter's own calendar day and clock offset (default: now, here). */
+export function getToday(day: LocalDay = localDay()): Promise<Today> {
+  return request('GET', '/train/today', { query: { ...day }, schema: todaySchema })
 }

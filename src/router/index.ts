@@ -16,6 +16,7 @@ export type RouteName =
   | 'register'
   | 'train'
   | 'session-run'
+  | 'session-summary'
   | 'logbook'
   | 'session-detail'
   | 'plan'
@@ -73,6 +74,13 @@ export const routes: NamedRoute[] = [
     name: 'session-run',
     component: () => import('@/views/SessionRunView.vue'),
     meta: { title: 'Session', requiresAuth: true, roles: ['lifter'], hideTabBar: true },
+  },
+  {
+    path: '/train/session/:id(\\d+)/summary',
+    name: 'session-summary',
+    component: () => import('@/views/SessionSummaryView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Session summary', requiresAuth: true, roles: ['lifter'], hideTabBar: true },
   },
   {
     path: '/logbook',

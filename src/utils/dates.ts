@@ -6,3 +6,23 @@ export function formatDay(iso: string | null | undefined): string {
   const date = new Date(iso)
   return Number.isNaN(date.getTime()) ? '—' : dayFormat.format(date)
 }
+
+/** The lifter's local calendar day and Date.getTimezoneOffset(), as the API's date/tzOffset query wants them. */
+export function localDay(now: Date = new Date()): { date: string; tzOffset: number } {
+  const pad = (n: number) => String(n).padStart(2, '0')
+  return { date: `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`, tzOffset: now.getTimezoneOffset() }
+}
+
+/** "52 min", "1 h 05 min" for a duration in seconds; an em dash for none. */
+export function formatDuration(seconds: number | null | undefined): string {
+  if (seconds === null || seconds === undefined) return '—'
+  const minutes = Math.round(seconds / 60)
+  if (minutes < 60) return `${minutes} min`
+  return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`
+}
+
+/** "2:05" for a count of seconds (rest clock). */
+export function formatClock(totalSeconds: number): string {
+  const s = Math.max(0, Math.floor(totalSeconds))
+  return `${Math.floor(s / 60)}:${String(s % 60).padStart(2, '0')}`
+}

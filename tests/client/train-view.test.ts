@@ -8,6 +8,7 @@ import { createAppRouter } from '@/router'
 import { useSessionStore } from '@/stores/session'
 import TrainView from '@/views/TrainView.vue'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
+import { buildRunSession } from './helpers/run-fixtures'
 
 let pinia: Pinia
 let router: Router
@@ -66,7 +67,8 @@ describe('TrainView', () => {
 
     const text = (await mountTrain()).text()
 
-    expect(requests[0]).toMatchObject({ method: 'GET', url: '/api/train/today' })
+    expect(requests[0].method).toBe('GET')
+    expect(requests[0].url).toMatch(/^\/api\/train\/today\?date=\d{4}-\d{2}-\d{2}&tzOffset=-?\d+$/)
     expect(text).toContain('Four-day push / pull / legs')
     expect(text).toContain('Push · version I')
     expect(text).toContain('Bench press')
@@ -74,23 +76,83 @@ describe('TrainView', () => {
     expect(text).toContain('Last session: Legs · version II')
   })
 
-  it('opens the session page from "Start session"', async () => {
+  it("sends the lifter's own calendar day and clock offset", async () => {
+    vi.useFakeTimers({ toFake: ['Date'] })
+    vi.setSystemTime(new Date(2026, 11, 1, 23, 30))
+    const { requests } = stubFetch({ status: 200, body: pushDay })
+
+    await mountTrain()
+    vi.useRealTimers()
+
+    expect(requests[0].url).toBe(`/api/train/today?date=2026-12-01&tzOffset=${new Date(2026, 11, 1, 23, 30).getTimezoneOffset()}`)
+  })
+
+  it('previews each exercise with its targets in the lifter unit', async () => {
     stubFetch({ status: 200, body: pushDay })
+    const wrapper = await mountTrain()
+
+    const lines = wrapper.findAll('[data-testid="slot-target"]').map((l) => l.text())
+
+    expect(lines).toEqual(['Top set 80 kg × 6–9 · aim for 8', 'Back-off set 70 kg × 9–12', 'Set 20 kg × 10–15'])
+  })
+
+  it('shows the targets in pounds for a lifter who uses pounds', async () => {
+    useSessionStore().user = buildUser({ unit: 'lb' })
+    stubFetch({ status: 200, body: pushDay })
+    const wrapper = await mountTrain()
+
+    expect(wrapper.findAll('[data-testid="slot-target"]')[0].text()).toBe('Top set 176.4 lb × 6–9 · aim for 8')
+  })
+
+  it('"Start session" starts today\'s session on the server and opens the runner', async () => {
+    const { requests } = stubFetch({ status: 200, body: pushDay }, { status: 201, body: { session: buildRunSession() } })
     const wrapper = await mountTrain()
 
     const start = wrapper.findAll('button').find((button) => button.text() === 'Start session')
     await start!.trigger('click')
 
     await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    expect(requests[1]).toMatchObject({ method: 'POST', body: {} })
+    expect(requests[1].url).toMatch(/^\/api\/sessions\?date=\d{4}-\d{2}-\d{2}&tzOffset=-?\d+$/)
   })
 
-  it('on a rest day says so and offers no start button', async () => {
-    stubFetch({ status: 200, body: { ...pushDay, day: { ...pushDay.day!, name: 'Rest', isRest: true, slots: [] } } })
-
+  it('offers "Resume session" when a session is in progress, and loads it', async () => {
+    const { requests } = stubFetch({ status: 200, body: { ...pushDay, inProgressSessionId: 41 } }, { status: 200, body: { session: buildRunSession() } })
     const wrapper = await mountTrain()
 
+    await wrapper.get('[data-testid="start-session"]').trigger('click')
+
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    expect(wrapper.text()).toContain('Resume session')
+    expect(requests[1]).toMatchObject({ method: 'GET', url: '/api/sessions/41/run' })
+  })
+
+  it('"Empty session" starts a session with no plan day', async () => {
+    const { requests } = stubFetch({ status: 200, body: pushDay }, { status: 201, body: { session: { ...buildRunSession(), sets: [], exercises: [] } } })
+    const wrapper = await mountTrain()
+
+    await wrapper.get('[data-testid="empty-session"]').trigger('click')
+
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    expect(requests[1]).toMatchObject({ method: 'POST', body: { empty: true } })
+  })
+
+  it('on a rest day says so, offers no start button, and "Train anyway" starts the next training day', async () => {
+    const restDay = {
+      ...pushDay,
+      day: { ...pushDay.day!, name: 'Rest', isRest: true, slots: [] },
+      nextTraining: { dayId: 4, name: 'Pull', version: 'II' as const },
+    }
+    const { requests } = stubFetch({ status: 200, body: restDay }, { status: 201, body: { session: buildRunSession() } })
+
+    const wrapper = await mountTrain()
     expect(wrapper.text()).toContain('Rest day')
     expect(wrapper.text()).not.toContain('Start session')
+    await wrapper.get('[data-testid="train-anyway"]').trigger('click')
+
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    expect(wrapper.text()).toContain('Train anyway: Pull · version II')
+    expect(requests[1]).toMatchObject({ method: 'POST', body: { dayId: 4, version: 'II' } })
   })
 
   it('without a plan tells the lifter to ask their coach', async () => {

@@ -45,7 +45,7 @@ describe('a demo lifter on a 390x844 phone', () => {
     await understand.click()
 
     await expect.poll(() => new URL(page.url()).pathname).toBe('/train')
-    await page.getByRole('heading', { name: 'Train' }).waitFor()
+    await page.getByRole('heading', { name: 'Train', exact: true }).waitFor()
     // Today's session from the demo plan, with its version.
     await page.getByText(/version (I|II)/).first().waitFor()
     await page.getByRole('button', { name: /Start session/ }).waitFor()
@@ -59,7 +59,7 @@ describe('a demo lifter on a 390x844 phone', () => {
 
     // The cautions are not shown again on the next visit.
     await page.reload()
-    await page.getByRole('heading', { name: 'Train' }).waitFor()
+    await page.getByRole('heading', { name: 'Train', exact: true }).waitFor()
     expect(await page.getByRole('button', { name: 'I understand' }).count()).toBe(0)
     await page.close()
   })

@@ -23,6 +23,10 @@ describe('records', () => {
     expect(sessionRecords([{ loadKg: 90, reps: 6 }], [{ loadKg: 100, reps: 6 }])).toEqual([])
   })
 
+  it('does not count a load lifted for the first time as a rep record (no earlier number at that load)', () => {
+    expect(sessionRecords([{ loadKg: 105, reps: 3 }], [{ loadKg: 100, reps: 8 }]).filter((r) => r.kind === 'rep_record')).toEqual([])
+  })
+
   it('sets no record on a first session (nothing to beat yet)', () => {
     expect(sessionRecords([{ loadKg: 60, reps: 10 }], [])).toEqual([])
   })

@@ -1,0 +1,101 @@
+import { describe, expect, it } from 'vitest'
+import { mount } from '@vue/test-utils'
+import { LB_GYM_SET } from '@shared/domain/equipment'
+import { PLATE_COLOUR_HEX } from '@shared/domain/plates'
+import { plateChange } from '@shared/domain/warmup'
+import SetCard from '@/components/session/SetCard.vue'
+import { plateChangeText } from '@/utils/set-text'
+import { benchPress, buildRunSession, cableFly } from './helpers/run-fixtures'
+
+const session = buildRunSession()
+const benchSets = session.sets.filter((s) => s.exerciseId === 1)
+const [warmup1, warmup2, topSet, backoffSet] = benchSets
+const flySets = session.sets.filter((s) => s.exerciseId === 2)
+
+function mountCard(set = topSet, loadKg: number | null = set.targetLoadKg, unit: 'kg' | 'lb' = 'kg', exercise = benchPress, blockSets = benchSets) {
+  return mount(SetCard, { props: { set, blockSets, exercise, unit, loadKg } })
+}
+const text = (wrapper: ReturnType<typeof mountCard>, id: string) => wrapper.get(`[data-testid="${id}"]`).text()
+const plateMasses = (wrapper: ReturnType<typeof mountCard>) =>
+  wrapper.findAll('.set-card-plates__plate').map((g) => Number(g.attributes('data-mass')))
+
+describe('SetCard', () => {
+  it('shows a top set with its target, rep range to technical failure and last time', () => {
+    const card = mountCard()
+
+    expect(card.text()).toContain('Bench press')
+    expect(text(card, 'set-label')).toBe('Top set')
+    expect(text(card, 'target-load')).toBe('100 kg')
+    expect(text(card, 'target-reps')).toBe('6–9 reps, aim for 8 to technical failure')
+    expect(text(card, 'last-time')).toBe('Last time: 97.5 kg × 8 · RIR 0')
+  })
+
+  it('counts warm-ups and back-off sets within the exercise, and straight sets as "Set n of m"', () => {
+    expect(text(mountCard(warmup2), 'set-label')).toBe('Warm-up 2 of 2')
+    expect(text(mountCard(backoffSet), 'set-label')).toBe('Back-off set 1 of 1')
+    expect(text(mountCard(flySets[1], 20, 'kg', cableFly, flySets), 'set-label')).toBe('Set 2 of 2')
+    expect(text(mountCard(flySets[1], 20, 'kg', cableFly, flySets), 'target-reps')).toBe('10–15 reps · RIR 2')
+  })
+
+  it('draws the plates of one side for 100 kg on a 20 kg bar with 2.5 kg collars, in IWF colours', () => {
+    // 100 - 20 (bar) - 2 x 2.5 (collars) = 75 kg, 37.5 kg a side: 25 + 10 + 2.5, heaviest innermost.
+    const card = mountCard()
+
+    expect(plateMasses(card)).toEqual([25, 10, 2.5])
+    const fills = card.findAll('.set-card-plates__disc').map((r) => r.attributes('fill'))
+    expect(fills).toEqual([PLATE_COLOUR_HEX.red, PLATE_COLOUR_HEX.green, PLATE_COLOUR_HEX.red])
+    const heights = card.findAll('.set-card-plates__disc').map((r) => Number(r.attributes('height')))
+    expect(heights[0]).toBe(heights[1]) // 25 and 10 kg discs are both 450 mm across (IWF)
+    expect(heights[2]).toBeLessThan(heights[1])
+  })
+
+  it('says what to change from the previous warm-up, per side', () => {
+    // 80 kg is 25 + 2.5 a side; 100 kg is 25 + 10 + 2.5: the outer 2.5 comes off, 10 and 2.5 go on.
+    expect(text(mountCard(), 'plate-change')).toBe('Take off 1 × 2.5 kg, add 1 × 10 kg + 1 × 2.5 kg each side')
+  })
+
+  it('says "Empty bar" for a first set on the bare bar and what to load for a first set above it', () => {
+    expect(text(mountCard(warmup1), 'plate-change')).toBe('Empty bar')
+    const firstAt60 = { ...warmup1, targetLoadKg: 60 }
+    expect(text(mountCard(firstAt60, 60, 'kg', benchPress, [firstAt60, warmup2]), 'plate-change')).toBe(
+      'Load 1 × 15 kg + 1 × 2.5 kg each side',
+    )
+  })
+
+  it('follows the load stepper: plates for the load about to be lifted', () => {
+    expect(plateMasses(mountCard(topSet, 105))).toEqual([25, 15])
+  })
+
+  it('draws pound plates grey with their mass printed, and shows loads in the lifter unit', () => {
+    const lbBench = { ...benchPress, equipment: LB_GYM_SET }
+    const set = { ...topSet, targetLoadKg: 102.05828325 } // 225 lb
+    const card = mountCard(set, set.targetLoadKg, 'lb', lbBench)
+
+    expect(text(card, 'target-load')).toBe('225 lb')
+    expect(plateMasses(card)).toEqual([45, 45])
+    expect(card.findAll('.set-card-plates__disc').map((r) => r.attributes('fill'))).toEqual([PLATE_COLOUR_HEX.grey, PLATE_COLOUR_HEX.grey])
+    expect(card.findAll('.set-card-plates__plate text').map((t) => t.text())).toEqual(['45', '45'])
+  })
+
+  it('shows no plates for a stack exercise', () => {
+    expect(mountCard(flySets[0], 20, 'kg', cableFly, flySets).find('[data-testid="set-plates"]').exists()).toBe(false)
+  })
+})
+
+describe('plateChangeText', () => {
+  it('adds plates: "Add 2 × 10 kg each side"', () => {
+    expect(plateChangeText(plateChange([25], [25, 10, 10]), 'kg')).toBe('Add 2 × 10 kg each side')
+  })
+
+  it('swaps an outer plate: "Take off 1 × 5 kg, add 1 × 10 kg each side"', () => {
+    expect(plateChangeText(plateChange([25, 5], [25, 10]), 'kg')).toBe('Take off 1 × 5 kg, add 1 × 10 kg each side')
+  })
+
+  it('takes plates off only', () => {
+    expect(plateChangeText(plateChange([45, 45, 25], [45, 45]), 'lb')).toBe('Take off 1 × 25 lb each side')
+  })
+
+  it('says when nothing changes', () => {
+    expect(plateChangeText(plateChange([20], [20]), 'kg')).toBe('No plate change')
+  })
+})
