@@ -41,7 +41,7 @@ export interface MuscleWeek {
   muscle: string
   /** Hard sets per week (primary 1, secondary 0.5). */
   weeklySets: number
-  /** Training days per week on which the muscle is a primary mover. */
+  /** Training days per week on which the muscle gets at least one hard set (secondary sets count half). */
   weeklyFrequency: number
 }
 
@@ -88,7 +88,7 @@ export function checkPlan(days: readonly CheckDay[], trainingDaysPerWeek = defau
 
   for (const day of trainingDays) {
     for (const label of ['I', 'II'] as const) {
-      const muscledToday = new Set<string>()
+      const setsToday = new Map<string, number>()
       for (const slot of day.versions[label]) {
         const where = { day: day.name, version: label, exercise: slot.exerciseName, sets: slot.workingSets }
         if (slot.role === 'compound_primary' && slot.workingSets > MAX_WORKING_SETS_PRIMARY) {
@@ -104,13 +104,14 @@ export function checkPlan(days: readonly CheckDay[], trainingDaysPerWeek = defau
             values: { ...where, cap: MAX_WORKING_SETS_ANY },
           })
         }
-        for (const m of slot.primaryMuscles) {
-          sets.set(m, (sets.get(m) ?? 0) + slot.workingSets)
-          muscledToday.add(m)
+        const add = (m: string, n: number) => {
+          sets.set(m, (sets.get(m) ?? 0) + n)
+          setsToday.set(m, (setsToday.get(m) ?? 0) + n)
         }
-        for (const m of slot.secondaryMuscles) sets.set(m, (sets.get(m) ?? 0) + slot.workingSets / 2)
+        for (const m of slot.primaryMuscles) add(m, slot.workingSets)
+        for (const m of slot.secondaryMuscles) add(m, slot.workingSets / 2)
       }
-      for (const m of muscledToday) hits.set(m, (hits.get(m) ?? 0) + 1)
+      for (const [m, n] of setsToday) if (n >= 1) hits.set(m, (hits.get(m) ?? 0) + 1)
     }
   }
 

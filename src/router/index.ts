@@ -23,6 +23,7 @@ export type RouteName =
   | 'athletes'
   | 'review-desk'
   | 'plans'
+  | 'plan-edit'
   | 'me'
   | 'admin-users'
   | 'not-found'
@@ -118,6 +119,13 @@ export const routes: NamedRoute[] = [
     name: 'plans',
     component: () => import('@/views/PlansView.vue'),
     meta: { title: 'Plans', requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/plans/:id(\\d+)',
+    name: 'plan-edit',
+    component: () => import('@/views/PlanEditView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Plan editor', requiresAuth: true, roles: ['coach', 'lifter'], hideTabBar: true },
   },
   {
     path: '/me',

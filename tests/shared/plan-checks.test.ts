@@ -96,6 +96,16 @@ describe('weekly volume and frequency', () => {
     expect(codes).toContain('MOVEMENT_OVER_CAP')
   })
 
+  it('counts a day for a muscle worked only as a secondary mover once it adds up to a hard set', () => {
+    const bench = { role: 'compound_primary' as const, exerciseName: 'Barbell bench press', workingSets: 2, primaryMuscles: ['chest'], secondaryMuscles: ['triceps'] }
+    const fly = { role: 'isolation' as const, exerciseName: 'Cable chest fly', workingSets: 1, primaryMuscles: ['chest'], secondaryMuscles: ['front_delts'] }
+    const day: CheckDay = { name: 'Chest', isRest: false, versions: { I: [bench, fly], II: [bench, fly] } }
+    const checks = checkPlan([day], 2)
+    // Triceps: 2 sets x 0.5 = 1 hard set each day -> counted; front delts: 1 x 0.5 = 0.5 -> not.
+    expect(muscle(checks, 'triceps')).toEqual({ muscle: 'triceps', weeklySets: 2, weeklyFrequency: 2 })
+    expect(muscle(checks, 'front_delts')).toEqual({ muscle: 'front_delts', weeklySets: 1, weeklyFrequency: 0 })
+  })
+
   it('flags very high weekly volume', () => {
     const many = { role: 'accessory' as const, exerciseName: 'Leg press', workingSets: 4, primaryMuscles: ['quads'], secondaryMuscles: [] }
     const day: CheckDay = { name: 'Legs', isRest: false, versions: { I: [many, many, many, many], II: [many, many, many, many] } }
