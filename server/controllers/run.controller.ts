@@ -1,5 +1,8 @@
 import type { Request, Response } from 'express'
+import type { AppConfig } from '../config'
+import type { Mailer } from '../mail/mailer'
 import { currentUser } from '../middleware/auth'
+import { notifyCoachesOfCompletion } from '../services/review.service'
 import * as run from '../services/run.service'
 import { buildReport } from '../services/session-report.service'
 import { sessionForViewer } from '../services/session.service'
@@ -30,8 +33,16 @@ export async function addExercise(_req: Request, res: Response) {
   res.json({ session: await run.addExercise(currentUser(res.locals), res.locals.params.id, res.locals.body) })
 }
 
-export async function complete(_req: Request, res: Response) {
-  res.json({ report: await run.completeSession(currentUser(res.locals), res.locals.params.id, res.locals.body) })
+export async function complete(req: Request, res: Response) {
+  const lifter = currentUser(res.locals)
+  const { justCompleted, session, report } = await run.completeSession(lifter, res.locals.params.id, res.locals.body)
+  res.json({ report })
+  if (justCompleted) {
+    // After answering: a slow or failing mail server never holds up or fails the lifter's finish.
+    notifyCoachesOfCompletion(req.app.locals.config as AppConfig, req.app.locals.mailer as Mailer, session, lifter).catch((err) =>
+      console.error('[mail] completion notice failed', err),
+    )
+  }
 }
 
 export async function report(_req: Request, res: Response) {

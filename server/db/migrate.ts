@@ -4,6 +4,7 @@ import type { QueryInterface, Sequelize } from 'sequelize'
 import * as initialSchema from './migrations/0001-initial-schema'
 import * as sessionRunner from './migrations/0002-session-runner'
 import * as passwordResets from './migrations/0003-password-resets'
+import * as coachReview from './migrations/0004-coach-review'
 
 type Migration = {
   name: string
@@ -16,6 +17,7 @@ const migrations: Migration[] = [
   { name: '0001-initial-schema', ...initialSchema },
   { name: '0002-session-runner', ...sessionRunner },
   { name: '0003-password-resets', ...passwordResets },
+  { name: '0004-coach-review', ...coachReview },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

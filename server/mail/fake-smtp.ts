@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import { createWriteStream, mkdirSync } from 'node:fs'
+import { createWriteStream, mkdirSync, renameSync } from 'node:fs'
 import type { AddressInfo } from 'node:net'
 import { join } from 'node:path'
 import { SMTPServer } from 'smtp-server'
@@ -18,9 +18,13 @@ export async function startFakeSmtp(outboxDir: string) {
     onData(stream, _session, callback) {
       // Time first in the name, so a folder listing is in the order messages arrived.
       const file = join(outboxDir, `${new Date().toISOString().replace(/[:.]/g, '-')}-${randomUUID()}.eml`)
-      const out = createWriteStream(file)
+      // Written under a temporary name and renamed when complete, so a reader never sees half a message.
+      const out = createWriteStream(`${file}.part`)
       stream.pipe(out)
-      out.on('finish', () => callback())
+      out.on('finish', () => {
+        renameSync(`${file}.part`, file)
+        callback()
+      })
       out.on('error', (err) => callback(err))
     },
   })

@@ -42,3 +42,33 @@ export function passwordResetMail(to: string, name: string, url: string, expires
     { label: 'Choose a new password', url },
   )
 }
+
+export function sessionCompletedMail(to: string, coachName: string, athleteName: string, what: string, url: string) {
+  return message(
+    to,
+    `${athleteName} finished ${what}`,
+    [`Hello ${coachName},`, `${athleteName} finished ${what}. It is waiting on your review desk.`],
+    { label: 'Open the review desk', url },
+  )
+}
+
+export function dailyDigestMail(to: string, coachName: string, lines: string[], url: string) {
+  return message(
+    to,
+    `${lines.length} ${lines.length === 1 ? 'session' : 'sessions'} finished today`,
+    [`Hello ${coachName},`, 'Finished since your last digest:', ...lines.map((l) => `• ${l}`)],
+    { label: 'Open the review desk', url },
+  )
+}
+
+export function sessionReviewedMail(to: string, athleteName: string, coachName: string, what: string, comments: number, url: string) {
+  return message(
+    to,
+    `${coachName} reviewed your ${what}`,
+    [
+      `Hello ${athleteName},`,
+      `${coachName} reviewed your ${what}${comments > 0 ? ` and left ${comments} ${comments === 1 ? 'comment' : 'comments'}` : ''}. You will see them in your logbook and on your next session's set cards.`,
+    ],
+    { label: 'Open your logbook', url },
+  )
+}

@@ -27,4 +27,5 @@ sessionRoutes.put('/sessions/:id/sets/:setId', ...lifter, validate({ params: set
 sessionRoutes.post('/sessions/:id/swap', ...lifter, validate({ params: idParamsSchema, body: swapExerciseSchema }), run.swap)
 sessionRoutes.post('/sessions/:id/exercises', ...lifter, validate({ params: idParamsSchema, body: addExerciseSchema }), run.addExercise)
 sessionRoutes.post('/sessions/:id/complete', ...lifter, validate({ params: idParamsSchema, body: completeSessionSchema }), run.complete)
-sessionRoutes.post('/sessions/:id/next-steps', ...lifter, validate({ params: idParamsSchema, body: takeNextStepsSchema }), run.takeNextSteps)
+// The lifter takes next steps; their coach may edit them.
+sessionRoutes.post('/sessions/:id/next-steps', authenticate, requireRole('lifter', 'coach'), validate({ params: idParamsSchema, body: takeNextStepsSchema }), run.takeNextSteps)

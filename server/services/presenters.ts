@@ -11,6 +11,7 @@ export function toUser(user: UserModel): User {
     unit: user.unit,
     active: user.active,
     cautionsAcknowledgedAt: user.cautionsAcknowledgedAt?.toISOString() ?? null,
+    notifyCompleted: user.notifyCompleted,
     createdAt: user.createdAt.toISOString(),
   }
 }

@@ -13,6 +13,8 @@ import {
 } from '../db'
 import { AppError } from '../errors'
 import { toSessionSummary } from './presenters'
+import { computeSessionFlags } from './review-flags.service'
+import { sessionForViewer } from './session.service'
 import { buildReport } from './session-report.service'
 import {
   blockKey, equipmentOf, gymOf, historyFor, parseScheme, planBlock,
@@ -315,10 +317,14 @@ export async function addExercise(lifter: UserModel, sessionId: number, input: A
   return runSessionView(session, lifter)
 }
 
-/** Finishes the session: the server recomputes and stores the totals and moves the rotation on. */
+/**
+ * Finishes the session: the server recomputes and stores the totals and the review desk's
+ * flags, and moves the rotation on. `justCompleted` is false when it was already finished.
+ */
 export async function completeSession(lifter: UserModel, sessionId: number, input: CompleteSessionInput) {
   const session = await ownSession(lifter, sessionId)
-  if (session.status !== 'completed') {
+  const justCompleted = session.status !== 'completed'
+  if (justCompleted) {
     const sets = await SetLogModel.findAll({ where: { sessionId, skipped: false, loggedAt: { [Op.ne]: null } } })
     const totals = sessionTotals(sets.map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps })))
     const completedAt = new Date(Math.max(new Date(input.completedAt).getTime(), session.startedAt?.getTime() ?? 0))
@@ -331,15 +337,21 @@ export async function completeSession(lifter: UserModel, sessionId: number, inpu
         }
       }
     })
+    await session.update({ summary: { ...totals, flags: await computeSessionFlags(session, lifter) } })
   }
-  return buildReport(session, lifter)
+  return { justCompleted, session, report: await buildReport(session, lifter) }
 }
 
-/** Takes (or edits) next steps: they become the next session's targets for those exercises. */
-export async function takeNextSteps(lifter: UserModel, sessionId: number, input: TakeNextStepsInput) {
-  const session = await ownSession(lifter, sessionId)
+/**
+ * Takes (or edits) next steps: they become the next session's targets for those exercises.
+ * The lifter takes them; their coach may edit them (always recorded as edited).
+ */
+export async function takeNextSteps(viewer: UserModel, sessionId: number, input: TakeNextStepsInput) {
+  const { session, athlete } = await sessionForViewer(viewer, sessionId)
+  if (viewer.role === 'lifter' && session.athleteId !== viewer.id) throw AppError.notFound('Session')
   if (session.status !== 'completed') throw AppError.conflict('session_running', 'Finish the session first')
-  const gym = await gymOf(lifter)
+  const byCoach = viewer.role === 'coach'
+  const gym = await gymOf(athlete)
   await SessionModel.sequelize!.transaction(async (transaction) => {
     for (const step of input.steps) {
       const exercise = await ExerciseModel.findByPk(step.exerciseId, { transaction })
@@ -350,14 +362,14 @@ export async function takeNextSteps(lifter: UserModel, sessionId: number, input:
         ? step.targetLoadKg
         : roundDownToLoadable(step.targetLoadKg, equipment).loadKg
       const values = {
-        status: step.edited ? ('edited' as const) : ('taken' as const),
+        status: step.edited || byCoach ? ('edited' as const) : ('taken' as const),
         targetLoadKg: loadKg, targetReps: step.targetReps,
         targetRepsMin: inSession.targetRepsMin, targetRepsMax: inSession.targetRepsMax, reason: null,
       }
       const existing = await NextStepModel.findOne({ where: { sessionId, exerciseId: step.exerciseId, slotId: step.slotId }, transaction })
       if (existing) await existing.update(values, { transaction })
-      else await NextStepModel.create({ athleteId: lifter.id, exerciseId: step.exerciseId, slotId: step.slotId, sessionId, ...values }, { transaction })
+      else await NextStepModel.create({ athleteId: athlete.id, exerciseId: step.exerciseId, slotId: step.slotId, sessionId, ...values }, { transaction })
     }
   })
-  return buildReport(session, lifter)
+  return buildReport(session, athlete)
 }

@@ -47,6 +47,8 @@ export async function historyFor(
   athleteId: number,
   blocks: Array<{ exerciseId: number; slotId: number | null }>,
   excludeSessionId?: number,
+  /** Only sessions completed before this time (to look at an older session as it was then). */
+  before?: Date,
 ): Promise<Map<string, BlockHistory>> {
   const result = new Map<string, BlockHistory>()
   if (blocks.length === 0) return result
@@ -61,7 +63,12 @@ export async function historyFor(
       ...(excludeSessionId ? { sessionId: { [Op.ne]: excludeSessionId } } : {}),
     },
     include: [
-      { model: SessionModel, as: 'session', attributes: ['id', 'completedAt'], where: { athleteId, status: 'completed' } },
+      {
+        model: SessionModel,
+        as: 'session',
+        attributes: ['id', 'completedAt'],
+        where: { athleteId, status: 'completed', ...(before ? { completedAt: { [Op.lt]: before } } : {}) },
+      },
     ],
     order: [[{ model: SessionModel, as: 'session' }, 'completedAt', 'DESC'], ['position', 'ASC']],
     limit: HISTORY_ROWS,

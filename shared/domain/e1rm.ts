@@ -4,7 +4,7 @@
  * Every formula here has the form 1RM = w · f(r), so each also gives the inverse
  * (the load for r reps from a 1RM) as 1RM / f(r). Loads are in any one unit (kg as stored).
  */
-import { EngineError, assertLoad, assertReps } from './errors'
+import { EngineError, MAX_REPS, assertLoad, assertReps } from './errors'
 
 export const E1RM_FORMULAS = ['epley', 'brzycki', 'lander', 'lombardi', 'mayhew', 'oconnor', 'wathen'] as const
 export type E1rmFormula = (typeof E1RM_FORMULAS)[number]
@@ -104,7 +104,9 @@ export function estimateOneRepMax(
   if (!Number.isInteger(rir) || rir < 0) {
     throw new EngineError('INVALID_REPS', `Reps in reserve must be a whole number at or above 0 (got ${rir})`, { rir })
   }
-  const repsToFailure = reps + rir
+  // Reps plus reserve can pass the 50-rep limit of the formulas (45 reps at RIR 10): such an
+  // estimate is unreliable anyway, so count it at the limit instead of refusing the set.
+  const repsToFailure = Math.min(reps + rir, MAX_REPS)
   const e1rm = repsToFailure === 1 ? load : e1rmFormula(formula, load, repsToFailure)
   return { e1rm, formula, repsToFailure, reliable: repsToFailure <= RELIABLE_REPS_MAX }
 }

@@ -28,6 +28,10 @@ export const signInSchema = z.object({
 })
 export type SignInInput = z.infer<typeof signInSchema>
 
+/** A coach's e-mail about completed sessions: each one, a daily digest, or none. */
+export const notifyCompletedSchema = z.enum(['each', 'daily', 'off'])
+export type NotifyCompleted = z.infer<typeof notifyCompletedSchema>
+
 /** What the API tells a client about a user (never the password hash). */
 export const userSchema = z.object({
   id: z.number().int(),
@@ -38,6 +42,7 @@ export const userSchema = z.object({
   active: z.boolean(),
   /** When the user confirmed the training cautions; null until the first sign-in shows them. */
   cautionsAcknowledgedAt: z.string().nullable(),
+  notifyCompleted: notifyCompletedSchema,
   createdAt: z.string(),
 })
 export type User = z.infer<typeof userSchema>
@@ -46,7 +51,7 @@ export const authResponseSchema = z.object({ token: z.string(), user: userSchema
 export type AuthResponse = z.infer<typeof authResponseSchema>
 
 export const updateProfileSchema = z
-  .object({ name: displayNameSchema, unit: unitSchema })
+  .object({ name: displayNameSchema, unit: unitSchema, notifyCompleted: notifyCompletedSchema })
   .partial()
   .refine((v) => Object.keys(v).length > 0, 'Send at least one field')
 export type UpdateProfileInput = z.infer<typeof updateProfileSchema>

@@ -70,6 +70,13 @@ describe('estimated 1RM formulas', () => {
   })
 
   // Reynolds et al., JSCR 20(3):584-592, 2006: use no more than about 10 reps.
+  it('counts reps plus reserve at the 50-rep limit instead of refusing a legal set (45 reps at RIR 10)', () => {
+    const capped = estimateOneRepMax(20, 45, { rir: 10 })
+    expect(capped.repsToFailure).toBe(50)
+    expect(capped.e1rm).toBeCloseTo(20 * (1 + 50 / 30), 9) // Epley (1985) at 50 reps
+    expect(capped.reliable).toBe(false)
+  })
+
   it('flags estimates from more than 10 reps to failure as less reliable', () => {
     expect(RELIABLE_REPS_MAX).toBe(10)
     expect(estimateOneRepMax(100, 10).reliable).toBe(true)

@@ -2,6 +2,7 @@ import {
   DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes,
   type InferCreationAttributes, type Sequelize,
 } from 'sequelize'
+import type { NotifyCompleted } from '@shared/schemas/auth.schema'
 import type { Role, Unit } from '@shared/schemas/common.schema'
 
 export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
@@ -15,6 +16,9 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
   declare active: CreationOptional<boolean>
   declare tokenVersion: CreationOptional<number>
   declare cautionsAcknowledgedAt: Date | null
+  /** Coaches: e-mail on each completed session, a daily digest, or none. */
+  declare notifyCompleted: CreationOptional<NotifyCompleted>
+  declare lastDigestAt: CreationOptional<Date | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -30,6 +34,8 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         cautionsAcknowledgedAt: { type: DataTypes.DATE, allowNull: true },
+        notifyCompleted: { type: DataTypes.STRING(5), allowNull: false, defaultValue: 'each' },
+        lastDigestAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -10,6 +10,7 @@ import { rotationEntry } from '@shared/domain/rotation'
 import { backoffTarget, DEFAULT_REST_SECONDS, DEFAULT_SCHEMES } from '@shared/domain/schemes'
 import { sessionTotals } from '@shared/domain/summary'
 import type { AppConfig } from '../../config'
+import { computeSessionFlags } from '../../services/review-flags.service'
 import {
   AssignmentModel, ClubModel, CoachAthleteModel, DayVersionModel, EquipmentProfileModel, ExerciseModel,
   PlanDayModel, PlanModel, SessionModel, SetLogModel, SlotModel, UserModel,
@@ -140,10 +141,12 @@ async function simulateHistory(
           : set.targetLoadKg
         // Fatigue from earlier sets costs about 4 % of strength per set (invented for the demo).
         const capacity = repsToFailure(e1rm * (1 - 0.04 * done.length), targetKg) + (random() - 0.5) * 1.6
+        // A set far too light for the lifter still ends a few reps past the range (they stop).
         const reps = set.toFailure
-          ? Math.max(1, Math.floor(capacity))
+          ? Math.max(1, Math.min(set.targetRepsMax + 3, Math.floor(capacity)))
           : Math.max(1, Math.min(set.targetRepsMax + 1, Math.floor(capacity - (set.targetRir ?? 0))))
-        const rir = set.toFailure ? 0 : Math.max(0, Math.floor(capacity) - reps)
+        // Lifters rate reserve only up to about 5 reps (RIR scale, Zourdos et al. 2016).
+        const rir = set.toFailure ? 0 : Math.min(5, Math.max(0, Math.floor(capacity) - reps))
         done.push({ kind: set.kind, loadKg: targetKg, reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, rir })
         clock += set.restSeconds * 1000 + 45_000
         sessionSets.push({ ...row, targetLoadKg: targetKg, loadKg: targetKg, reps, rir, failure: set.toFailure, loggedAt: new Date(clock) })
@@ -208,6 +211,12 @@ export async function seedDemo(config: AppConfig, now = new Date()) {
       await simulateHistory(athlete, assignment, plan.days, gyms.get(athlete.id)!, profile, now, transaction)
     }
   })
+  // The review desk's flags, as the server stores them when each session is finished.
+  for (const athlete of await UserModel.findAll({ where: { role: 'lifter' } })) {
+    for (const session of await SessionModel.findAll({ where: { athleteId: athlete.id, status: 'completed' } })) {
+      await session.update({ summary: { ...(session.summary as object), flags: await computeSessionFlags(session, athlete) } })
+    }
+  }
 }
 
 export async function seedDemoIfEmpty(config: AppConfig, now = new Date()): Promise<boolean> {

@@ -38,6 +38,7 @@ export function buildUser(overrides: Partial<User> = {}): User {
     unit: 'kg',
     active: true,
     cautionsAcknowledgedAt: '2026-11-30T09:00:00.000Z',
+    notifyCompleted: 'each',
     createdAt: '2026-11-01T09:00:00.000Z',
     ...overrides,
   }

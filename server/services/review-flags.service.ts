@@ -1,0 +1,83 @@
+import { Op } from 'sequelize'
+import type { PerformedSet } from '@shared/domain/progression'
+import { reviewFlags, type ReviewBlock, type ReviewFlag } from '@shared/domain/review-flags'
+import { rotationEntry } from '@shared/domain/rotation'
+import type { SlotRole } from '@shared/domain/schemes'
+import { AssignmentModel, ExerciseModel, PlanDayModel, SessionModel, SetLogModel, type UserModel } from '../db'
+import { blockKey, equipmentOf, gymOf, historyFor } from './session-planning.service'
+
+const DAY_MS = 86_400_000
+const utcDay = (d: Date) => Math.floor(d.getTime() / DAY_MS)
+
+/** Plan rest days the rotation passed between two sessions of the same assignment. */
+async function restDaysBetween(previous: SessionModel, session: SessionModel): Promise<number> {
+  if (previous.assignmentId === null || previous.assignmentId !== session.assignmentId) return 0
+  if (previous.rotationIndex === null || session.rotationIndex === null) return 0
+  const assignment = await AssignmentModel.findByPk(session.assignmentId)
+  if (!assignment) return 0
+  const days = await PlanDayModel.findAll({ where: { planId: assignment.planId }, order: [['position', 'ASC']], attributes: ['isRest'] })
+  let rest = 0
+  for (let i = previous.rotationIndex + 1; i < session.rotationIndex; i++) {
+    if (days[rotationEntry(i, days.length).dayIndex]?.isRest) rest += 1
+  }
+  return rest
+}
+
+/**
+ * The review desk's flags for a completed session, as it looked when it was done: its sets
+ * against the lifter's earlier sessions. Computed once when the session is finished.
+ */
+export async function computeSessionFlags(session: SessionModel, athlete: UserModel): Promise<ReviewFlag[]> {
+  const completedAt = session.completedAt ?? new Date()
+  const sets = await SetLogModel.findAll({
+    where: { sessionId: session.id },
+    include: [{ model: ExerciseModel, as: 'exercise' }],
+    order: [['position', 'ASC']],
+  })
+  const groups: Array<{ exercise: ExerciseModel; slotId: number | null; role: SlotRole; sets: SetLogModel[] }> = []
+  for (const set of sets) {
+    let group = groups.find((g) => g.exercise.id === set.exerciseId && g.slotId === set.slotId)
+    if (!group) {
+      group = { exercise: set.exercise!, slotId: set.slotId, role: (set.role ?? 'accessory') as SlotRole, sets: [] }
+      groups.push(group)
+    }
+    group.sets.push(set)
+  }
+  const [gym, history, previous] = await Promise.all([
+    gymOf(athlete),
+    historyFor(athlete.id, groups.map((g) => ({ exerciseId: g.exercise.id, slotId: g.slotId })), session.id, completedAt),
+    SessionModel.findOne({
+      where: { athleteId: athlete.id, status: 'completed', id: { [Op.ne]: session.id }, completedAt: { [Op.lt]: completedAt } },
+      order: [['completedAt', 'DESC']],
+    }),
+  ])
+  const blocks: ReviewBlock[] = groups.map((g) => {
+    const working = g.sets.filter((s) => s.kind !== 'warmup')
+    const isDone = (s: SetLogModel) => !s.skipped && s.loggedAt !== null && s.loadKg !== null && (s.reps ?? 0) > 0
+    const exposureSets: PerformedSet[] = working.filter(isDone).map((s) => ({
+      kind: s.kind === 'warmup' ? 'straight' : s.kind,
+      loadKg: s.loadKg!,
+      reps: s.reps!,
+      repsMin: s.targetRepsMin ?? s.reps!,
+      repsMax: s.targetRepsMax ?? s.reps!,
+      rir: s.failure ? 0 : s.rir,
+    }))
+    return {
+      exercise: g.exercise.name,
+      role: g.role,
+      equipment: equipmentOf(gym, g.exercise),
+      planned: working.map((s) => ({
+        kind: s.kind as 'top' | 'backoff' | 'straight',
+        repsMin: s.targetRepsMin,
+        done: isDone(s) ? { loadKg: s.loadKg!, reps: s.reps! } : null,
+      })),
+      history: history.get(blockKey(g.exercise.id, g.slotId))?.exposures ?? [],
+      exposure: { sets: exposureSets },
+    }
+  })
+  return reviewFlags({
+    blocks,
+    daysSincePrevious: previous?.completedAt ? utcDay(completedAt) - utcDay(previous.completedAt) : null,
+    restDaysBetween: previous ? await restDaysBetween(previous, session) : 0,
+  })
+}
