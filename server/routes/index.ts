@@ -5,6 +5,7 @@ import { authRoutes, meRoutes } from './auth.routes'
 import { exerciseRoutes } from './exercises.routes'
 import { inviteRoutes } from './invites.routes'
 import { planRoutes } from './plans.routes'
+import { progressRoutes } from './progress.routes'
 import { reviewRoutes } from './review.routes'
 import { sessionRoutes } from './sessions.routes'
 import { trainRoutes } from './train.routes'
@@ -15,6 +16,6 @@ export function apiRouter() {
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })
-  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, athleteRoutes, adminRoutes)
+  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, athleteRoutes, adminRoutes)
   return api
 }

@@ -1,20 +1,34 @@
 import { Op, fn, col } from 'sequelize'
+import { bestE1rm } from '@shared/domain/records'
+import { defaultTrainingDaysPerWeek } from '@shared/domain/plan-checks'
+import type { ReviewFlag } from '@shared/domain/review-flags'
 import type { AthleteRow } from '@shared/schemas/athlete.schema'
-import { AssignmentModel, CoachAthleteModel, PlanModel, SessionModel, UserModel } from '../db'
+import {
+  AssignmentModel, CoachAthleteModel, ExerciseModel, PlanDayModel, PlanModel, ReviewModel, SessionModel, SetLogModel,
+  UserModel,
+} from '../db'
 
 const DAY_MS = 24 * 60 * 60 * 1000
+const ADHERENCE_DAYS = 28
+const TREND_DAYS = 56
+const PLATEAU_DAYS = 14
 
-/** The coach's athletes with their plan and recent activity, in a fixed number of queries. */
+/**
+ * The coach's athletes with plan, activity, adherence, plateaus, review backlog and the
+ * estimated-1RM trend of their main lifts, in a fixed number of queries whatever the number
+ * of athletes.
+ */
 export async function listAthletes(coach: UserModel, now = new Date()): Promise<AthleteRow[]> {
   const links = await CoachAthleteModel.findAll({ where: { coachId: coach.id } })
   const athleteIds = links.map((l) => l.athleteId)
   if (athleteIds.length === 0) return []
+  const since = (days: number) => new Date(now.getTime() - days * DAY_MS)
 
-  const [athletes, assignments, lastSessions, recentCounts] = await Promise.all([
+  const [athletes, assignments, lastSessions, recent, reviewed, trendSets] = await Promise.all([
     UserModel.findAll({ where: { id: athleteIds }, order: [['name', 'ASC']] }),
     AssignmentModel.findAll({
       where: { athleteId: athleteIds, active: true },
-      include: [{ model: PlanModel, as: 'plan', attributes: ['name'] }],
+      include: [{ model: PlanModel, as: 'plan', attributes: ['name'], include: [{ model: PlanDayModel, as: 'days', attributes: ['isRest'] }] }],
     }),
     SessionModel.findAll({
       attributes: ['athleteId', [fn('MAX', col('completed_at')), 'lastCompletedAt']],
@@ -23,26 +37,77 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       raw: true,
     }) as unknown as Promise<Array<{ athleteId: number; lastCompletedAt: string | Date | null }>>,
     SessionModel.findAll({
-      attributes: ['athleteId', [fn('COUNT', col('id')), 'count']],
-      where: { athleteId: athleteIds, status: 'completed', completedAt: { [Op.gte]: new Date(now.getTime() - 28 * DAY_MS) } },
-      group: ['athleteId'],
-      raw: true,
-    }) as unknown as Promise<Array<{ athleteId: number; count: number | string }>>,
+      attributes: ['id', 'athleteId', 'completedAt', 'summary'],
+      where: { athleteId: athleteIds, status: 'completed', completedAt: { [Op.gte]: since(ADHERENCE_DAYS) } },
+    }),
+    ReviewModel.findAll({
+      attributes: ['sessionId'],
+      include: [{ model: SessionModel, as: 'session', attributes: [], where: { athleteId: athleteIds } }],
+    }),
+    SetLogModel.findAll({
+      attributes: ['sessionId', 'exerciseId', 'loadKg', 'reps'],
+      where: { role: 'compound_primary', kind: { [Op.ne]: 'warmup' }, reps: { [Op.gt]: 0 }, loadKg: { [Op.gt]: 0 }, skipped: false },
+      include: [
+        { model: SessionModel, as: 'session', attributes: ['athleteId', 'completedAt'], where: { athleteId: athleteIds, status: 'completed', completedAt: { [Op.gte]: since(TREND_DAYS) } } },
+        { model: ExerciseModel, as: 'exercise', attributes: ['name'] },
+      ],
+    }),
   ])
+  const reviewedIds = new Set(reviewed.map((r) => r.sessionId))
+  const waiting = (await SessionModel.findAll({
+    attributes: ['athleteId', [fn('COUNT', col('id')), 'count']],
+    where: { athleteId: athleteIds, status: 'completed', id: { [Op.notIn]: [...reviewedIds, 0] } },
+    group: ['athleteId'],
+    raw: true,
+  })) as unknown as Array<{ athleteId: number; count: number }>
 
-  const planByAthlete = new Map(assignments.map((a) => [a.athleteId, a.plan?.name ?? null]))
-  const lastByAthlete = new Map(lastSessions.map((s) => [s.athleteId, s.lastCompletedAt]))
-  const countByAthlete = new Map(recentCounts.map((c) => [c.athleteId, Number(c.count)]))
   return athletes.map((a) => {
-    const last = lastByAthlete.get(a.id)
+    const assignment = assignments.find((x) => x.athleteId === a.id)
+    const last = lastSessions.find((s) => s.athleteId === a.id)?.lastCompletedAt
+    const mine = recent.filter((s) => s.athleteId === a.id)
+    let planned: number | null = null
+    if (assignment?.plan) {
+      const days = (assignment.plan.days ?? []).map((d) => ({ name: '', isRest: d.isRest, versions: { I: [], II: [] } }))
+      const activeDays = Math.min(ADHERENCE_DAYS, Math.max(0, (now.getTime() - Date.parse(`${assignment.startDate}T00:00:00Z`)) / DAY_MS))
+      planned = Math.round((defaultTrainingDaysPerWeek(days) * activeDays) / 7)
+    }
+    const plateauLifts = [
+      ...new Set(
+        mine
+          .filter((s) => s.completedAt!.getTime() >= since(PLATEAU_DAYS).getTime())
+          .flatMap(((s) => ((s.summary as { flags?: ReviewFlag[] } | null)?.flags ?? []).filter((f) => f.code === 'plateau').map((f) => f.exercise ?? ''))),
+      ),
+    ].filter(Boolean)
+    // Best estimated 1RM per session on each main lift, oldest first.
+    const byLift = new Map<string, Map<number, { date: string; sets: Array<{ loadKg: number; reps: number }> }>>()
+    for (const s of trendSets) {
+      if (s.session!.athleteId !== a.id) continue
+      const lift = s.exercise?.name ?? ''
+      const sessions = byLift.get(lift) ?? new Map()
+      const entry = sessions.get(s.sessionId) ?? { date: s.session!.completedAt!.toISOString(), sets: [] }
+      entry.sets.push({ loadKg: s.loadKg!, reps: s.reps! })
+      sessions.set(s.sessionId, entry)
+      byLift.set(lift, sessions)
+    }
+    const e1rmTrend = [...byLift.entries()].map(([exercise, sessions]) => ({
+      exercise,
+      points: [...sessions.values()]
+        .sort((x, y) => x.date.localeCompare(y.date))
+        .map((e) => ({ date: e.date, e1rmKg: bestE1rm(e.sets)!.e1rmKg })),
+    }))
     return {
       id: a.id,
       name: a.name,
       email: a.email,
       unit: a.unit,
-      planName: planByAthlete.get(a.id) ?? null,
+      planName: assignment?.plan?.name ?? null,
       lastSessionAt: last ? new Date(last).toISOString() : null,
-      sessionsLast28Days: countByAthlete.get(a.id) ?? 0,
+      sessionsLast28Days: mine.length,
+      plannedLast28Days: planned,
+      adherencePct: planned ? Math.round((mine.length / planned) * 100) : null,
+      plateauLifts,
+      waitingReview: Number(waiting.find((w) => w.athleteId === a.id)?.count ?? 0),
+      e1rmTrend,
     }
   })
 }

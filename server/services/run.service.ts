@@ -9,7 +9,7 @@ import type {
 } from '@shared/schemas/run.schema'
 import type { TodayQuery } from '@shared/schemas/train.schema'
 import {
-  AssignmentModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel, SlotModel, type UserModel,
+  AssignmentModel, CommentModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel, SlotModel, UserModel,
 } from '../db'
 import { AppError } from '../errors'
 import { toSessionSummary } from './presenters'
@@ -121,10 +121,23 @@ export async function runSessionView(session: SessionModel, athlete: UserModel):
     gymOf(athlete),
     historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id),
   ])
+  // The coach's comments on each exercise's sets last time, shown on the set card.
+  const lastSessionIds = [...new Set([...history.values()].map((h) => h.exposures.at(-1)?.sessionId).filter((id): id is number => id !== undefined))]
+  const comments = lastSessionIds.length
+    ? await CommentModel.findAll({
+        where: { sessionId: lastSessionIds, setLogId: { [Op.ne]: null } },
+        include: [
+          { model: UserModel, as: 'author', attributes: ['name', 'role'], where: { role: 'coach' } },
+          { model: SetLogModel, as: 'setLog', attributes: ['exerciseId'] },
+        ],
+        order: [['createdAt', 'ASC']],
+      })
+    : []
   return {
     ...toSessionSummary(session),
     exercises: blocks.map(({ exercise, slotId, role }) => {
-      const last = history.get(blockKey(exercise.id, slotId))?.exposures.at(-1)
+      const blockHistory = history.get(blockKey(exercise.id, slotId))
+      const last = blockHistory?.exposures.at(-1)
       return {
         exerciseId: exercise.id,
         slotId,
@@ -135,6 +148,10 @@ export async function runSessionView(session: SessionModel, athlete: UserModel):
         equipment: equipmentOf(gym, exercise),
         lastTime: (last?.sets ?? []).map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps, rir: s.rir ?? null })),
         lastTimeAt: last?.at ?? null,
+        coachComments: comments
+          .filter((c) => c.sessionId === last?.sessionId && (c as CommentModel & { setLog?: SetLogModel }).setLog?.exerciseId === exercise.id)
+          .map((c) => ({ body: c.body, author: (c as CommentModel & { author?: UserModel }).author?.name ?? '', createdAt: c.createdAt.toISOString() })),
+        nextStepBy: blockHistory?.takenBy ?? null,
       }
     }),
     sets: sets.map(toRunSet),
@@ -364,7 +381,8 @@ export async function takeNextSteps(viewer: UserModel, sessionId: number, input:
       const values = {
         status: step.edited || byCoach ? ('edited' as const) : ('taken' as const),
         targetLoadKg: loadKg, targetReps: step.targetReps,
-        targetRepsMin: inSession.targetRepsMin, targetRepsMax: inSession.targetRepsMax, reason: null,
+        targetRepsMin: inSession.targetRepsMin, targetRepsMax: inSession.targetRepsMax,
+        reason: byCoach ? { by: 'coach' } : null,
       }
       const existing = await NextStepModel.findOne({ where: { sessionId, exerciseId: step.exerciseId, slotId: step.slotId }, transaction })
       if (existing) await existing.update(values, { transaction })

@@ -33,6 +33,8 @@ export interface BlockHistory {
   exposures: Array<Exposure & { sessionId: number }>
   /** The lifter's latest taken or edited next step, if it came after the latest exposure. */
   taken: TakenTarget | null
+  /** Who set that next step: the lifter, or their coach editing it. */
+  takenBy: 'lifter' | 'coach' | null
 }
 
 const HISTORY_ROWS = 800
@@ -112,7 +114,8 @@ export async function historyFor(
         (!latest || s.sessionId === latest.sessionId),
     )
     const taken = step && step.targetLoadKg !== null ? { loadKg: step.targetLoadKg, targetReps: step.targetReps ?? undefined } : null
-    result.set(key, { exposures, taken })
+    const takenBy = !taken ? null : (step?.reason as { by?: string } | null)?.by === 'coach' ? 'coach' : 'lifter'
+    result.set(key, { exposures, taken, takenBy })
   }
   return result
 }

@@ -67,6 +67,10 @@ export const runExerciseSchema = z.object({
   equipment: equipmentSchema,
   lastTime: z.array(lastTimeSetSchema),
   lastTimeAt: z.string().nullable(),
+  /** The coach's comments on this exercise's sets last time, for the set card. */
+  coachComments: z.array(z.object({ body: z.string(), author: z.string(), createdAt: z.string() })),
+  /** Who set today's first target: the coach edited the next step, or the lifter took it. */
+  nextStepBy: z.enum(['coach', 'lifter']).nullable(),
 })
 export type RunExercise = z.infer<typeof runExerciseSchema>
 

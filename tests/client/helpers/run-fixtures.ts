@@ -48,6 +48,8 @@ export const benchPress: RunExercise = {
     { kind: 'backoff', loadKg: 85, reps: 11, rir: 1 },
   ],
   lastTimeAt: '2026-11-26T18:00:00.000Z',
+  coachComments: [],
+  nextStepBy: null,
 }
 
 export const cableFly: RunExercise = {
@@ -60,6 +62,8 @@ export const cableFly: RunExercise = {
   equipment: { kind: 'stack', unit: 'kg', steps: [5, 10, 15, 20, 25, 30], addOns: [] },
   lastTime: [],
   lastTimeAt: null,
+  coachComments: [],
+  nextStepBy: null,
 }
 
 /** Push day: bench press (2 warm-ups, a top set, a back-off set) and cable fly (2 sets). */
