@@ -6,9 +6,12 @@ import type { Mailer } from './mail/mailer'
 import { errorHandler, notFound } from './middleware/error-handler'
 import { apiRouter } from './routes'
 import { devRoutes } from './routes/dev.routes'
+import { LocalDiskStorage, type UploadStorage } from './storage/upload-storage'
 
 export interface AppDeps {
   mailer: Mailer
+  /** Form-check videos; local disk under config.uploads.dir unless another store is given. */
+  storage?: UploadStorage
 }
 
 /** Builds the Express app; never listens (server/index.ts does). */
@@ -16,6 +19,7 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   const app = express()
   app.locals.config = config
   app.locals.mailer = deps.mailer
+  app.locals.storage = deps.storage ?? new LocalDiskStorage(config.uploads.dir)
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')
   app.use(express.json({ limit: '100kb' }))

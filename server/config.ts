@@ -30,6 +30,9 @@ const envSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASS: z.string().optional(),
   MAIL_FROM: z.string().default('Chalkline <no-reply@chalkline.localhost>'),
+  /** Form-check videos: where they are kept and the largest accepted, in megabytes. */
+  UPLOAD_DIR: z.string().optional(),
+  UPLOAD_MAX_MB: z.coerce.number().min(1).max(2000).default(100),
   /** How long an invitation link works. */
   INVITE_TTL_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(24 * 7),
 })
@@ -52,6 +55,7 @@ export interface AppConfig {
     outboxDir: string
   }
   inviteTtlHours: number
+  uploads: { dir: string; maxBytes: number }
 }
 
 /** Reads a kept secret, or makes one and keeps it, so tokens survive a restart. */
@@ -91,5 +95,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       outboxDir: databasePath === ':memory:' ? resolve('data/outbox') : resolve(dirname(databasePath), 'outbox'),
     },
     inviteTtlHours: e.INVITE_TTL_HOURS,
+    uploads: {
+      dir: resolve(e.UPLOAD_DIR ?? (databasePath === ':memory:' ? 'data/uploads' : resolve(dirname(databasePath), 'uploads'))),
+      maxBytes: Math.round(e.UPLOAD_MAX_MB * 1024 * 1024),
+    },
   }
 }

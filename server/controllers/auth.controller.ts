@@ -1,5 +1,6 @@
 import type { Request, Response } from 'express'
 import type { AppConfig } from '../config'
+import type { UploadStorage } from '../storage/upload-storage'
 import { currentUser } from '../middleware/auth'
 import * as auth from '../services/auth.service'
 import { toUser } from '../services/presenters'
@@ -29,4 +30,9 @@ export async function updateMe(_req: Request, res: Response) {
 
 export async function acknowledgeCautions(_req: Request, res: Response) {
   res.json({ user: await auth.acknowledgeCautions(currentUser(res.locals)) })
+}
+
+export async function deleteMe(req: Request, res: Response) {
+  await auth.deleteAccount(req.app.locals.storage as UploadStorage, currentUser(res.locals), res.locals.body.password)
+  res.status(204).end()
 }

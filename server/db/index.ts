@@ -53,6 +53,7 @@ function associate() {
   CommentModel.belongsTo(SetLogModel, { as: 'setLog', foreignKey: 'setLogId' })
   CommentModel.belongsTo(UserModel, { as: 'author', foreignKey: 'authorId' })
   UploadModel.belongsTo(SetLogModel, { as: 'setLog', foreignKey: 'setLogId' })
+  SetLogModel.hasOne(UploadModel, { as: 'video', foreignKey: 'setLogId' })
   UploadModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' })
 }
 

@@ -14,6 +14,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   else if (err instanceof ZodError) error = AppError.badRequest('Some fields are not valid', toFieldIssues(err))
   else if (err?.type === 'entity.parse.failed') error = new AppError(400, 'invalid_json', 'The body is not valid JSON')
   else if (err?.type === 'entity.too.large') error = new AppError(413, 'payload_too_large', 'The body is too large')
+  else if (err?.name === 'MulterError') {
+    error = err.code === 'LIMIT_FILE_SIZE'
+      ? new AppError(413, 'file_too_large', 'The file is larger than this server accepts')
+      : AppError.badRequest('The upload is not valid', [{ path: String(err.field ?? 'file'), message: String(err.message) }])
+  }
   else if (typeof err?.status === 'number' && err.status >= 400 && err.status < 500 && err.expose) {
     error = new AppError(err.status, 'bad_request', String(err.message))
   } else {

@@ -6,6 +6,7 @@ import { exerciseRoutes } from './exercises.routes'
 import { inviteRoutes } from './invites.routes'
 import { planRoutes } from './plans.routes'
 import { progressRoutes } from './progress.routes'
+import { uploadRoutes } from './uploads.routes'
 import { reviewRoutes } from './review.routes'
 import { sessionRoutes } from './sessions.routes'
 import { trainRoutes } from './train.routes'
@@ -16,6 +17,6 @@ export function apiRouter() {
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })
-  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, athleteRoutes, adminRoutes)
+  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, uploadRoutes, athleteRoutes, adminRoutes)
   return api
 }

@@ -6,6 +6,8 @@ import { AppError } from '../errors'
 import type { Mailer } from '../mail/mailer'
 import { passwordResetMail } from '../mail/templates'
 import { hashLinkToken, newLinkToken } from './token-hash'
+import type { UploadStorage } from '../storage/upload-storage'
+import { removeFilesOf } from './upload.service'
 import { issueToken } from './token.service'
 import { toUser } from './presenters'
 
@@ -80,4 +82,11 @@ export async function resetPassword(config: AppConfig, token: string, password: 
     )
     return { token: issueToken(config, user), user: toUser(user) }
   })
+}
+
+/** Deletes the account and everything that is only the user's (sessions, sets, videos and their files). */
+export async function deleteAccount(storage: UploadStorage, user: UserModel, password: string) {
+  if (!(await bcrypt.compare(password, user.passwordHash))) throw new AppError(401, 'invalid_credentials', 'Wrong password')
+  await removeFilesOf(storage, { ownerId: user.id })
+  await user.destroy()
 }

@@ -34,6 +34,7 @@ export function toSetLog(set: SetLogModel): SetLog {
     failure: set.failure,
     note: set.note,
     loggedAt: set.loggedAt?.toISOString() ?? null,
+    videoId: set.video?.id ?? null,
   }
 }
 

@@ -1,5 +1,5 @@
 import type { ListSessionsQuery, SessionDetail } from '@shared/schemas/session.schema'
-import { ExerciseModel, SessionModel, SetLogModel, UserModel } from '../db'
+import { ExerciseModel, SessionModel, SetLogModel, UploadModel, UserModel } from '../db'
 import { AppError } from '../errors'
 import { assertCanSeeAthlete } from './access.service'
 import { toSessionSummary, toSetLog } from './presenters'
@@ -20,7 +20,16 @@ export async function listSessions(viewer: UserModel, query: ListSessionsQuery) 
 
 export async function getSession(viewer: UserModel, sessionId: number): Promise<SessionDetail> {
   const session = await SessionModel.findByPk(sessionId, {
-    include: [{ model: SetLogModel, as: 'sets', include: [{ model: ExerciseModel, as: 'exercise' }] }],
+    include: [
+      {
+        model: SetLogModel,
+        as: 'sets',
+        include: [
+          { model: ExerciseModel, as: 'exercise' },
+          { model: UploadModel, as: 'video', attributes: ['id'] },
+        ],
+      },
+    ],
     order: [[{ model: SetLogModel, as: 'sets' }, 'position', 'ASC']],
   })
   if (!session) throw AppError.notFound('Session')

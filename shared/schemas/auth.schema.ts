@@ -55,3 +55,6 @@ export const updateProfileSchema = z
   .partial()
   .refine((v) => Object.keys(v).length > 0, 'Send at least one field')
 export type UpdateProfileInput = z.infer<typeof updateProfileSchema>
+
+/** Deleting an account asks for the password once more. */
+export const deleteAccountSchema = z.object({ password: z.string().min(1, 'Enter your password').max(128) })

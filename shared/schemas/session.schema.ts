@@ -27,6 +27,8 @@ export const setLogSchema = z.object({
   failure: z.boolean(),
   note: z.string().nullable(),
   loggedAt: z.string().nullable(),
+  /** The form-check video attached to this set, if any. */
+  videoId: z.number().int().nullable(),
 })
 export type SetLog = z.infer<typeof setLogSchema>
 

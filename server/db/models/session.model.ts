@@ -71,6 +71,7 @@ export class SetLogModel extends Model<InferAttributes<SetLogModel>, InferCreati
   declare updatedAt: CreationOptional<Date>
   declare exercise?: NonAttribute<ExerciseModel>
   declare session?: NonAttribute<SessionModel>
+  declare video?: NonAttribute<UploadModel | null>
 
   static initModel(sequelize: Sequelize) {
     SetLogModel.init(
