@@ -22,7 +22,9 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   app.locals.storage = deps.storage ?? new LocalDiskStorage(config.uploads.dir)
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')
-  app.use(express.json({ limit: '100kb' }))
+  // Small JSON bodies everywhere; a logbook import (CSV text up to 5 MB) has its own parser.
+  const smallJson = express.json({ limit: '100kb' })
+  app.use((req, res, next) => (req.path.startsWith('/api/logbook/import') ? next() : smallJson(req, res, next)))
 
   // The local outbox exists only while no real SMTP server is configured.
   if (config.mail.smtp === null) app.use(devRoutes(config))

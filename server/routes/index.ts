@@ -4,6 +4,7 @@ import { athleteRoutes } from './athletes.routes'
 import { authRoutes, meRoutes } from './auth.routes'
 import { exerciseRoutes } from './exercises.routes'
 import { inviteRoutes } from './invites.routes'
+import { logbookRoutes } from './logbook.routes'
 import { planRoutes } from './plans.routes'
 import { progressRoutes } from './progress.routes'
 import { uploadRoutes } from './uploads.routes'
@@ -17,6 +18,6 @@ export function apiRouter() {
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })
-  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, uploadRoutes, athleteRoutes, adminRoutes)
+  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, uploadRoutes, logbookRoutes, athleteRoutes, adminRoutes)
   return api
 }

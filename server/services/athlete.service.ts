@@ -100,6 +100,7 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       name: a.name,
       email: a.email,
       unit: a.unit,
+      planId: assignment?.planId ?? null,
       planName: assignment?.plan?.name ?? null,
       lastSessionAt: last ? new Date(last).toISOString() : null,
       sessionsLast28Days: mine.length,

@@ -5,6 +5,7 @@ import { rotationEntry } from '@shared/domain/rotation'
 import type { SlotRole } from '@shared/domain/schemes'
 import { AssignmentModel, ExerciseModel, PlanDayModel, SessionModel, SetLogModel, type UserModel } from '../db'
 import { blockKey, equipmentOf, gymOf, historyFor } from './session-planning.service'
+import { slotsOf } from './train.service'
 
 const DAY_MS = 86_400_000
 const utcDay = (d: Date) => Math.floor(d.getTime() / DAY_MS)
@@ -69,14 +70,26 @@ export async function computeSessionFlags(session: SessionModel, athlete: UserMo
       planned: working.map((s) => ({
         kind: s.kind as 'top' | 'backoff' | 'straight',
         repsMin: s.targetRepsMin,
+        repsMax: s.targetRepsMax,
         done: isDone(s) ? { loadKg: s.loadKg!, reps: s.reps! } : null,
       })),
       history: history.get(blockKey(g.exercise.id, g.slotId))?.exposures ?? [],
       exposure: { sets: exposureSets },
     }
   })
+  // Time between consecutive working sets of an exercise against its planned rest: the log
+  // times tell whether the lifter waited for the rest clock.
+  const slotRests = session.planDayId && session.versionLabel
+    ? new Map((await slotsOf(session.planDayId, session.versionLabel)).map((slot) => [slot.id, slot.restSec]))
+    : new Map<number, number>()
+  const rests = groups.flatMap((g) => {
+    const done = g.sets.filter((s) => s.kind !== 'warmup' && !s.skipped && s.loggedAt !== null)
+    const planned = (g.slotId !== null ? slotRests.get(g.slotId) : undefined) ?? g.exercise.defaultRestSec
+    return done.slice(1).map((s, i) => ({ plannedSec: planned, actualSec: (s.loggedAt!.getTime() - done[i].loggedAt!.getTime()) / 1000 }))
+  })
   return reviewFlags({
     blocks,
+    rests,
     daysSincePrevious: previous?.completedAt ? utcDay(completedAt) - utcDay(previous.completedAt) : null,
     restDaysBetween: previous ? await restDaysBetween(previous, session) : 0,
   })

@@ -96,7 +96,12 @@ export async function buildReport(session: SessionModel, athlete: UserModel): Pr
         : null,
       taken:
         tookStep && tookStep.targetLoadKg !== null && tookStep.targetReps !== null && tookStep.status !== 'proposed'
-          ? { targetLoadKg: tookStep.targetLoadKg, targetReps: tookStep.targetReps, status: tookStep.status }
+          ? {
+              targetLoadKg: tookStep.targetLoadKg,
+              targetReps: tookStep.targetReps,
+              status: tookStep.status,
+              by: (tookStep.reason as { by?: string } | null)?.by === 'coach' ? ('coach' as const) : ('lifter' as const),
+            }
           : null,
     }
   })

@@ -34,7 +34,7 @@ export async function getSession(viewer: UserModel, sessionId: number): Promise<
   })
   if (!session) throw AppError.notFound('Session')
   await assertCanSeeAthlete(viewer, session.athleteId, 'Session')
-  return { ...toSessionSummary(session), sets: (session.sets ?? []).map(toSetLog) }
+  return { ...toSessionSummary(session), note: session.note, sets: (session.sets ?? []).map(toSetLog) }
 }
 
 /** A session and its athlete, for a viewer allowed to see them (the lifter, their coach, an admin). */

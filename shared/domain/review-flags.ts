@@ -14,8 +14,12 @@ export const REGRESSION_PCT = 5
 export const FAR_SHORT_REPS = 2
 /** A session with at least this share of its planned working sets not done was cut short. */
 export const CUT_SHORT_SHARE = 0.25
+/** A rest shorter than this share of the planned rest counts as a skipped rest clock... */
+export const SHORT_REST_SHARE = 0.5
+/** ...and this many in one session is "skipped repeatedly". */
+export const SKIPPED_RESTS = 3
 
-export type ReviewFlagCode = 'plateau' | 'regression' | 'top_set_far_short' | 'cut_short' | 'missed_days'
+export type ReviewFlagCode = 'plateau' | 'regression' | 'top_set_far_short' | 'cut_short' | 'missed_days' | 'rest_skipped'
 
 export interface ReviewFlag {
   code: ReviewFlagCode
@@ -28,7 +32,7 @@ export interface ReviewBlock {
   role: SlotRole
   equipment: Equipment
   /** Planned working sets of this session, done or not, in order. */
-  planned: Array<{ kind: 'top' | 'backoff' | 'straight'; repsMin: number | null; done: { loadKg: number; reps: number } | null }>
+  planned: Array<{ kind: 'top' | 'backoff' | 'straight'; repsMin: number | null; repsMax: number | null; done: { loadKg: number; reps: number } | null }>
   /** Earlier exposures of the same slot, oldest first. */
   history: Exposure[]
   /** This session's exposure (working sets done). */
@@ -37,6 +41,8 @@ export interface ReviewBlock {
 
 export interface ReviewInput {
   blocks: ReviewBlock[]
+  /** Between consecutive working sets of the same exercise: the rest planned and the time actually taken. */
+  rests?: Array<{ plannedSec: number; actualSec: number }>
   /** Calendar days since the athlete's previous session, and plan rest days in between. */
   daysSincePrevious: number | null
   restDaysBetween: number
@@ -53,7 +59,7 @@ export function reviewFlags(input: ReviewInput): ReviewFlag[] {
     done += block.planned.filter((p) => p.done).length
     const top = block.planned.find((p) => p.kind === 'top')
     if (top?.done && top.repsMin !== null && top.done.reps <= top.repsMin - FAR_SHORT_REPS) {
-      flags.push({ code: 'top_set_far_short', exercise: block.exercise, values: { reps: top.done.reps, repsMin: top.repsMin } })
+      flags.push({ code: 'top_set_far_short', exercise: block.exercise, values: { reps: top.done.reps, repsMin: top.repsMin, repsMax: top.repsMax ?? top.repsMin } })
     }
     const last = block.history.at(-1)
     if (last) {
@@ -73,6 +79,8 @@ export function reviewFlags(input: ReviewInput): ReviewFlag[] {
   if (planned > 0 && (planned - done) / planned >= CUT_SHORT_SHARE) {
     flags.push({ code: 'cut_short', values: { done, planned } })
   }
+  const shortRests = (input.rests ?? []).filter((r) => r.actualSec < r.plannedSec * SHORT_REST_SHARE).length
+  if (shortRests >= SKIPPED_RESTS) flags.push({ code: 'rest_skipped', values: { shortRests, rests: input.rests!.length } })
   if (input.daysSincePrevious !== null) {
     const missed = input.daysSincePrevious - 1 - input.restDaysBetween
     if (missed > 0) flags.push({ code: 'missed_days', values: { missed } })

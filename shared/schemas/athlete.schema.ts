@@ -9,6 +9,7 @@ export const athleteRowSchema = z.object({
   name: z.string(),
   email: z.string(),
   unit: unitSchema,
+  planId: z.number().int().nullable(),
   planName: z.string().nullable(),
   lastSessionAt: z.string().nullable(),
   /** Completed sessions in the last 28 days. */

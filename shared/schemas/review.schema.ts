@@ -3,7 +3,7 @@ import { roleSchema } from './common.schema'
 import { sessionSummarySchema } from './session.schema'
 
 export const reviewFlagSchema = z.object({
-  code: z.enum(['plateau', 'regression', 'top_set_far_short', 'cut_short', 'missed_days']),
+  code: z.enum(['plateau', 'regression', 'top_set_far_short', 'cut_short', 'missed_days', 'rest_skipped']),
   exercise: z.string().optional(),
   values: z.record(z.string(), z.number()),
 })

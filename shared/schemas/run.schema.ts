@@ -172,7 +172,15 @@ export const exerciseReportSchema = z.object({
   alternative: nextStepOptionSchema.nullable(),
   plateau: z.object({ exposuresWithoutImprovement: z.number().int(), options: z.array(plateauOptionSchema) }).nullable(),
   /** What the lifter took for next time, once taken. */
-  taken: z.object({ targetLoadKg: z.number(), targetReps: z.number().int(), status: z.enum(['taken', 'edited']) }).nullable(),
+  taken: z
+    .object({
+      targetLoadKg: z.number(),
+      targetReps: z.number().int(),
+      status: z.enum(['taken', 'edited']),
+      /** Who chose it: the lifter, or their coach editing it. */
+      by: z.enum(['lifter', 'coach']).default('lifter'),
+    })
+    .nullable(),
 })
 export type ExerciseReport = z.infer<typeof exerciseReportSchema>
 

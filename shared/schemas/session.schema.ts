@@ -45,7 +45,11 @@ export const sessionSummarySchema = z.object({
 })
 export type SessionSummary = z.infer<typeof sessionSummarySchema>
 
-export const sessionDetailSchema = sessionSummarySchema.extend({ sets: z.array(setLogSchema) })
+export const sessionDetailSchema = sessionSummarySchema.extend({
+  /** The lifter's note on the whole session. */
+  note: z.string().nullable().default(null),
+  sets: z.array(setLogSchema),
+})
 export type SessionDetail = z.infer<typeof sessionDetailSchema>
 
 export const listSessionsQuerySchema = z.object({

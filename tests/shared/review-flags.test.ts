@@ -11,7 +11,7 @@ function block(history: Exposure[], now: Exposure, plannedDone = true): ReviewBl
     exercise: 'Back squat',
     role: 'compound_primary',
     equipment: KG_COMPETITION_SET,
-    planned: [{ kind: 'top', repsMin: 6, done: plannedDone ? { loadKg: now.sets[0].loadKg, reps: now.sets[0].reps } : null }],
+    planned: [{ kind: 'top', repsMin: 6, repsMax: 9, done: plannedDone ? { loadKg: now.sets[0].loadKg, reps: now.sets[0].reps } : null }],
     history,
     exposure: now,
   }
@@ -29,13 +29,26 @@ describe('review desk flags', () => {
 
   it('flags a top set two or more reps under its range', () => {
     const flags = reviewFlags({ blocks: [block([], top(100, 4))], daysSincePrevious: null, restDaysBetween: 0 })
-    expect(flags).toContainEqual({ code: 'top_set_far_short', exercise: 'Back squat', values: { reps: 4, repsMin: 6 } })
+    expect(flags).toContainEqual({ code: 'top_set_far_short', exercise: 'Back squat', values: { reps: 4, repsMin: 6, repsMax: 9 } })
   })
 
   it('flags a plateau after three exposures without a new best', () => {
     const flat = [top(100, 8), top(100, 8), top(100, 8)]
     const flags = reviewFlags({ blocks: [block(flat, top(100, 8))], daysSincePrevious: 1, restDaysBetween: 0 })
     expect(flags.map((f) => f.code)).toContain('plateau')
+  })
+
+  it('flags the rest clock skipped repeatedly: three or more rests under half the planned time', () => {
+    const rests = [
+      { plannedSec: 180, actualSec: 60 },
+      { plannedSec: 120, actualSec: 45 },
+      { plannedSec: 90, actualSec: 30 },
+      { plannedSec: 90, actualSec: 100 },
+    ]
+    expect(reviewFlags({ blocks: [], rests, daysSincePrevious: null, restDaysBetween: 0 })).toEqual([
+      { code: 'rest_skipped', values: { shortRests: 3, rests: 4 } },
+    ])
+    expect(reviewFlags({ blocks: [], rests: rests.slice(1), daysSincePrevious: null, restDaysBetween: 0 })).toEqual([])
   })
 
   it('flags a session cut short and the training days missed since the previous one', () => {
