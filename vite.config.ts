@@ -1,5 +1,6 @@
 import { fileURLToPath, URL } from 'node:url'
 import { defineConfig } from 'vitest/config'
+import type { Plugin } from 'vite'
 import vue from '@vitejs/plugin-vue'
 import Components from 'unplugin-vue-components/vite'
 import { VantResolver } from '@vant/auto-import-resolver'
@@ -9,9 +10,24 @@ const alias = {
   '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
 }
 
+/**
+ * Vant's icon font is inlined in its CSS as a data: URI, with a copy on a CDN as a fallback.
+ * The app ships only the inlined one, so no request ever leaves our origin.
+ */
+function vantIconFontLocalOnly(): Plugin {
+  return {
+    name: 'chalkline:vant-icon-font-local-only',
+    transform(code, id) {
+      if (!/[\\/]vant[\\/].*\.css/.test(id) || !code.includes('alicdn.com')) return null
+      return { code: code.replace(/,\s*url\((?:https?:)?\/\/at\.alicdn\.com[^)]*\)\s*format\(["']woff["']\)/g, ''), map: null }
+    },
+  }
+}
+
 export default defineConfig({
   plugins: [
     vue(),
+    vantIconFontLocalOnly(),
     // Vant components are imported on demand; function APIs (showToast...) are imported by hand.
     Components({ resolvers: [VantResolver()], dts: false }),
   ],

@@ -6,10 +6,15 @@ import type { Mailer } from './mail/mailer'
 import { errorHandler, notFound } from './middleware/error-handler'
 import { apiRouter } from './routes'
 import { devRoutes } from './routes/dev.routes'
+import { createLogger } from './logger'
+import { securityHeaders } from './middleware/security'
+import { pinoHttp } from 'pino-http'
+import type { Logger } from 'pino'
 import { LocalDiskStorage, type UploadStorage } from './storage/upload-storage'
 
 export interface AppDeps {
   mailer: Mailer
+  logger?: Logger
   /** Form-check videos; local disk under config.uploads.dir unless another store is given. */
   storage?: UploadStorage
 }
@@ -22,13 +27,18 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   app.locals.storage = deps.storage ?? new LocalDiskStorage(config.uploads.dir)
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')
+  const logger = deps.logger ?? createLogger(config)
+  app.locals.logger = logger
+  // One log line per request: method, path, status, time; never bodies, tokens or cookies.
+  app.use(pinoHttp({ logger, quietReqLogger: true, serializers: { req: (req) => ({ method: req.method, url: req.url?.replace(/sig=[^&]+/, 'sig=[redacted]') }) } }))
+  app.use(securityHeaders())
   // Small JSON bodies everywhere; a logbook import (CSV text up to 5 MB) has its own parser.
   const smallJson = express.json({ limit: '100kb' })
   app.use((req, res, next) => (req.path.startsWith('/api/logbook/import') ? next() : smallJson(req, res, next)))
 
   // The local outbox exists only while no real SMTP server is configured.
   if (config.mail.smtp === null) app.use(devRoutes(config))
-  app.use('/api', apiRouter(), notFound)
+  app.use('/api', apiRouter(config), notFound)
 
   // Production: the same process serves the built client; unknown paths get the app shell.
   if (config.clientDist && existsSync(config.clientDist)) {

@@ -33,6 +33,9 @@ const envSchema = z.object({
   /** Form-check videos: where they are kept and the largest accepted, in megabytes. */
   UPLOAD_DIR: z.string().optional(),
   UPLOAD_MAX_MB: z.coerce.number().min(1).max(2000).default(100),
+  /** Sign-in, registration, password reset and invitation attempts per client address per 15 minutes. */
+  RATE_LIMIT_AUTH: z.coerce.number().int().min(1).max(100000).optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   /** How long an invitation link works. */
   INVITE_TTL_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(24 * 7),
 })
@@ -56,6 +59,8 @@ export interface AppConfig {
   }
   inviteTtlHours: number
   uploads: { dir: string; maxBytes: number }
+  rateLimitAuth: number
+  logLevel: 'fatal' | 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'silent'
 }
 
 /** Reads a kept secret, or makes one and keeps it, so tokens survive a restart. */
@@ -95,6 +100,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       outboxDir: databasePath === ':memory:' ? resolve('data/outbox') : resolve(dirname(databasePath), 'outbox'),
     },
     inviteTtlHours: e.INVITE_TTL_HOURS,
+    // Tests sign in many times from one address; they set a low limit where they test the limit itself.
+    rateLimitAuth: e.RATE_LIMIT_AUTH ?? (e.NODE_ENV === 'test' ? 10_000 : 20),
+    logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     uploads: {
       dir: resolve(e.UPLOAD_DIR ?? (databasePath === ':memory:' ? 'data/uploads' : resolve(dirname(databasePath), 'uploads'))),
       maxBytes: Math.round(e.UPLOAD_MAX_MB * 1024 * 1024),

@@ -22,7 +22,8 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   else if (typeof err?.status === 'number' && err.status >= 400 && err.status < 500 && err.expose) {
     error = new AppError(err.status, 'bad_request', String(err.message))
   } else {
-    console.error(`[error] ${req.method} ${req.originalUrl}`, err)
+    // Logged in full on the server (structured, with no request body); the client gets no details.
+    req.log?.error({ err }, 'request failed')
     error = new AppError(500, 'internal', 'Something went wrong on our side')
   }
   res.status(error.status).json({

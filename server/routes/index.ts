@@ -1,4 +1,6 @@
 import { Router } from 'express'
+import type { AppConfig } from '../config'
+import { authRateLimit } from '../middleware/security'
 import { adminRoutes } from './admin.routes'
 import { athleteRoutes } from './athletes.routes'
 import { authRoutes, meRoutes } from './auth.routes'
@@ -13,8 +15,11 @@ import { sessionRoutes } from './sessions.routes'
 import { trainRoutes } from './train.routes'
 
 /** Everything under /api. */
-export function apiRouter() {
+export function apiRouter(config: AppConfig) {
   const api = Router()
+  // Guessing and sending endpoints get a per-address attempt limit.
+  const limited = authRateLimit(config)
+  for (const path of ['/auth/sign-in', '/auth/register', '/auth/password-reset', '/invites']) api.post(path, limited)
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })

@@ -8,6 +8,7 @@ import { passwordResetMail } from '../mail/templates'
 import { hashLinkToken, newLinkToken } from './token-hash'
 import type { UploadStorage } from '../storage/upload-storage'
 import { removeFilesOf } from './upload.service'
+import { assertNotCommonPassword } from './password-policy'
 import { issueToken } from './token.service'
 import { toUser } from './presenters'
 
@@ -22,6 +23,7 @@ function hashForUnknownUser(cost: number) {
 }
 
 export async function register(config: AppConfig, input: RegisterInput) {
+  assertNotCommonPassword(input.password)
   const existing = await UserModel.findOne({ where: { email: input.email } })
   if (existing) throw AppError.conflict('email_taken', 'An account with this e-mail already exists')
   const user = await UserModel.create({
@@ -68,6 +70,7 @@ export async function requestPasswordReset(config: AppConfig, mailer: Mailer, em
 
 /** Sets the new password once per link and signs the user out everywhere else. */
 export async function resetPassword(config: AppConfig, token: string, password: string, now = new Date()) {
+  assertNotCommonPassword(password)
   return PasswordResetModel.sequelize!.transaction(async (transaction) => {
     const reset = await PasswordResetModel.findOne({ where: { tokenHash: hashLinkToken(token) }, transaction })
     if (!reset || reset.usedAt || reset.expiresAt.getTime() <= now.getTime()) {

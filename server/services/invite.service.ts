@@ -8,6 +8,7 @@ import { invitationMail } from '../mail/templates'
 import { hashLinkToken, newLinkToken } from './token-hash'
 import { issueToken } from './token.service'
 import { toUser } from './presenters'
+import { assertNotCommonPassword } from './password-policy'
 
 const HOUR_MS = 3_600_000
 
@@ -84,6 +85,7 @@ export async function acceptInvite(config: AppConfig, token: string, input: Acce
       }
     } else {
       if (!input.password) throw AppError.badRequest('Choose a password', [{ path: 'password', message: 'Choose a password' }])
+      assertNotCommonPassword(input.password)
       lifter = await UserModel.create(
         {
           name: input.name ?? invite.name, email: invite.email, role: 'lifter', unit: 'kg', clubId: null,

@@ -1,0 +1,92 @@
+import { Writable } from 'node:stream'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
+import { createApp } from '../../server/app'
+import { UserModel } from '../../server/db'
+import { createLogger } from '../../server/logger'
+import { createTestApp, TEST_PASSWORD, type TestApp } from '../helpers/test-app'
+
+let t: TestApp
+beforeAll(async () => {
+  t = await createTestApp()
+})
+afterAll(async () => {
+  await t.close()
+})
+
+describe('security headers', () => {
+  it('sends a content security policy that allows only our own origin, and the usual helmet headers', async () => {
+    const res = await request(t.app).get('/api/health')
+    const csp = res.headers['content-security-policy']
+    expect(csp).toContain("default-src 'self'")
+    expect(csp).toContain("script-src 'self'")
+    expect(csp).toContain("connect-src 'self'")
+    expect(csp).toContain("frame-ancestors 'none'")
+    expect(csp).not.toMatch(/https?:\/\//) // no other origin anywhere in the policy
+    expect(res.headers['x-content-type-options']).toBe('nosniff')
+    expect(res.headers['x-powered-by']).toBeUndefined()
+  })
+})
+
+describe('attempt limits', () => {
+  it('answers 429 after the configured number of sign-in attempts from one address', async () => {
+    const strict = createApp({ ...t.config, rateLimitAuth: 3 }, { mailer: t.mailer })
+    const body = { email: 'nobody@example.test', password: 'wrong-password-1' }
+    const codes: number[] = []
+    for (let i = 0; i < 5; i++) codes.push((await request(strict).post('/api/auth/sign-in').send(body)).status)
+    expect(codes).toEqual([401, 401, 401, 429, 429])
+    const limited = await request(strict).post('/api/auth/sign-in').send(body)
+    expect(limited.body.error.code).toBe('too_many_attempts')
+    // Other endpoints are not counted against it.
+    expect((await request(strict).get('/api/health')).status).toBe(200)
+  })
+})
+
+describe('passwords', () => {
+  it('refuses a password from the common-passwords list, naming the field (NIST SP 800-63B 5.1.1.2)', async () => {
+    const res = await request(t.app)
+      .post('/api/auth/register')
+      .send({ name: 'Common', email: 'common@example.test', password: 'qwertyuiop', role: 'lifter' })
+    expect(res.status).toBe(400)
+    expect(res.body.error.issues).toEqual([expect.objectContaining({ path: 'password' })])
+    expect(await UserModel.count({ where: { email: 'common@example.test' } })).toBe(0)
+  })
+
+  it('stores bcrypt hashes with a cost of at least 10', async () => {
+    const { user } = await t.userWithToken('lifter')
+    const cost = Number(/^\$2[aby]\$(\d\d)\$/.exec(user.passwordHash)![1])
+    expect(cost).toBeGreaterThanOrEqual(10)
+  })
+})
+
+describe('logs and errors', () => {
+  it('logs requests as JSON with no password or token in them', async () => {
+    const lines: string[] = []
+    const sink = new Writable({ write: (chunk, _enc, done) => (lines.push(String(chunk)), done()) })
+    const logged = createApp({ ...t.config, logLevel: 'info' }, { mailer: t.mailer, logger: createLogger({ logLevel: 'info' }, sink) })
+    const { user, token } = await t.userWithToken('lifter')
+    await request(logged).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
+    await request(logged).get('/api/me').set('Authorization', `Bearer ${token}`)
+    const text = lines.join('')
+    expect(lines.length).toBeGreaterThanOrEqual(2)
+    for (const line of lines) expect(() => JSON.parse(line)).not.toThrow()
+    expect(text).toContain('/api/me')
+    expect(text).not.toContain(TEST_PASSWORD)
+    expect(text).not.toContain(token)
+  })
+
+  it('answers an unexpected failure with a plain 500: no stack trace, no SQL', async () => {
+    const { auth } = await t.userWithToken('lifter')
+    const spy = vi.spyOn(UserModel, 'findByPk').mockRejectedValueOnce(new Error('SQLITE_ERROR: no such column: users.secret_sauce (SELECT * FROM users)'))
+    const res = await request(t.app).get('/api/me').set(auth)
+    spy.mockRestore()
+    expect(res.status).toBe(500)
+    expect(res.body).toEqual({ error: { code: 'internal', message: 'Something went wrong on our side' } })
+    expect(JSON.stringify(res.body)).not.toMatch(/SQLITE|SELECT|\.ts:\d+/)
+  })
+
+  it('refuses bodies over 100 kB with 413', async () => {
+    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'a@b.co', password: 'x'.repeat(150_000) })
+    expect(res.status).toBe(413)
+  })
+})
