@@ -35,3 +35,13 @@ export async function updateMe(input: UpdateProfileInput): Promise<User> {
 export async function acknowledgeCautions(): Promise<User> {
   return (await request('POST', '/me/cautions', { schema: userEnvelopeSchema })).user
 }
+
+/** Always 202, whether or not an account exists for the e-mail. */
+export async function requestPasswordReset(email: string): Promise<void> {
+  await request('POST', '/auth/password-reset', { body: { email } })
+}
+
+/** Sets a new password from an e-mailed link and signs in; 410 'reset_link_invalid'. */
+export function resetPassword(token: string, password: string): Promise<AuthResponse> {
+  return request('POST', `/auth/password-reset/${encodeURIComponent(token)}`, { body: { password }, schema: authResponseSchema })
+}

@@ -20,6 +20,7 @@ export class ApiError extends Error {
 }
 
 export interface RequestOptions<T> {
+  /** JSON-serialisable data, or a FormData for a multipart upload. */
   body?: unknown
   query?: Record<string, string | number | boolean | null | undefined>
   /** Validates the response body; a mismatch throws an ApiError with code 'bad_response'. */
@@ -68,7 +69,9 @@ export async function request<T = unknown>(
   options: RequestOptions<T> = {},
 ): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' }
-  if (options.body !== undefined) headers['Content-Type'] = 'application/json'
+  // A FormData body (a file upload) goes as multipart: the browser sets its own Content-Type.
+  const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData
+  if (options.body !== undefined && !isForm) headers['Content-Type'] = 'application/json'
   if (authToken) headers.Authorization = `Bearer ${authToken}`
 
   let response: Response
@@ -76,7 +79,7 @@ export async function request<T = unknown>(
     response = await fetch(buildUrl(path, options.query), {
       method,
       headers,
-      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
     })
   } catch {
     throw new ApiError(0, 'network_error', 'No connection to the server. Check your signal and try again.')
@@ -91,4 +94,25 @@ export async function request<T = unknown>(
     throw new ApiError(response.status, 'bad_response', 'The server sent an answer this app does not understand.')
   }
   return parsed.data
+}
+
+/** A multipart upload (a FormData body) through the same request path. */
+export function requestForm<T = unknown>(method: HttpMethod, path: string, form: FormData, options: Omit<RequestOptions<T>, 'body'> = {}) {
+  return request<T>(method, path, { ...options, body: form })
+}
+
+/** A file download (an export): the body as a Blob, with the server's file name when it gives one. */
+export async function requestBlob(path: string, query?: RequestOptions<unknown>['query']): Promise<{ blob: Blob; filename: string | null }> {
+  const headers: Record<string, string> = {}
+  if (authToken) headers.Authorization = `Bearer ${authToken}`
+  let response: Response
+  try {
+    response = await fetch(buildUrl(path, query), { method: 'GET', headers })
+  } catch {
+    throw new ApiError(0, 'network_error', 'No connection to the server. Check your signal and try again.')
+  }
+  if (!response.ok) throw toApiError(response.status, await readJson(response), response.statusText)
+  const disposition = response.headers.get('Content-Disposition') ?? ''
+  const filename = /filename="?([^";]+)"?/.exec(disposition)?.[1] ?? null
+  return { blob: await response.blob(), filename }
 }

@@ -19,13 +19,20 @@ export type RouteName =
   | 'session-summary'
   | 'logbook'
   | 'session-detail'
+  | 'exercise-history'
+  | 'logbook-import'
   | 'plan'
   | 'athletes'
+  | 'athlete-detail'
   | 'review-desk'
+  | 'session-review'
   | 'plans'
   | 'plan-edit'
   | 'me'
   | 'admin-users'
+  | 'invite-accept'
+  | 'forgot-password'
+  | 'reset-password'
   | 'not-found'
 
 declare module 'vue-router' {
@@ -94,7 +101,21 @@ export const routes: NamedRoute[] = [
     name: 'session-detail',
     component: () => import('@/views/SessionDetailView.vue'),
     props: (route) => ({ id: Number(route.params.id) }),
-    meta: { title: 'Session', requiresAuth: true, roles: ['lifter'] },
+    // Coaches open their athletes' sessions from the athlete page; the server checks the link.
+    meta: { title: 'Session', requiresAuth: true, roles: ['lifter', 'coach'] },
+  },
+  {
+    path: '/logbook/exercise/:exerciseId(\\d+)',
+    name: 'exercise-history',
+    component: () => import('@/views/ExerciseHistoryView.vue'),
+    props: (route) => ({ exerciseId: Number(route.params.exerciseId) }),
+    meta: { title: 'Lift history', requiresAuth: true, roles: ['lifter'] },
+  },
+  {
+    path: '/logbook/import',
+    name: 'logbook-import',
+    component: () => import('@/views/LogbookImportView.vue'),
+    meta: { title: 'Import a logbook', requiresAuth: true, roles: ['lifter'] },
   },
   {
     path: '/plan',
@@ -109,10 +130,24 @@ export const routes: NamedRoute[] = [
     meta: { title: 'Athletes', requiresAuth: true, roles: ['coach'] },
   },
   {
+    path: '/athletes/:id(\\d+)',
+    name: 'athlete-detail',
+    component: () => import('@/views/AthleteDetailView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Athlete', requiresAuth: true, roles: ['coach'] },
+  },
+  {
     path: '/review',
     name: 'review-desk',
     component: () => import('@/views/ReviewDeskView.vue'),
     meta: { title: 'Review desk', requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/review/:id(\\d+)',
+    name: 'session-review',
+    component: () => import('@/views/SessionReviewView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Session review', requiresAuth: true, roles: ['coach'] },
   },
   {
     path: '/plans',
@@ -138,6 +173,26 @@ export const routes: NamedRoute[] = [
     name: 'admin-users',
     component: () => import('@/views/AdminUsersView.vue'),
     meta: { title: 'Accounts', requiresAuth: true, roles: ['admin'] },
+  },
+  {
+    path: '/invite/:token',
+    name: 'invite-accept',
+    component: () => import('@/views/InviteAcceptView.vue'),
+    props: true,
+    meta: { title: 'Invitation', hideTabBar: true },
+  },
+  {
+    path: '/forgot-password',
+    name: 'forgot-password',
+    component: () => import('@/views/ForgotPasswordView.vue'),
+    meta: { title: 'Forgot your password?', guestOnly: true, hideTabBar: true },
+  },
+  {
+    path: '/reset-password/:token',
+    name: 'reset-password',
+    component: () => import('@/views/PasswordResetView.vue'),
+    props: true,
+    meta: { title: 'Set a new password', hideTabBar: true },
   },
   { path: '/:pathMatch(.*)*', name: 'not-found', redirect: { name: 'home' } },
 ]

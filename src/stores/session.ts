@@ -18,6 +18,7 @@ export const useSessionStore = defineStore('session', () => {
   const role = computed<Role | null>(() => user.value?.role ?? null)
   const needsCautions = computed(() => user.value !== null && user.value.cautionsAcknowledgedAt === null)
 
+  /** Starts a signed-in session from a token the API handed over (sign-in, accepted invitation, password reset). */
   function start(newToken: string, newUser: User) {
     token.value = newToken
     setAuthToken(newToken)
@@ -70,6 +71,7 @@ export const useSessionStore = defineStore('session', () => {
     isSignedIn,
     role,
     needsCautions,
+    start,
     signIn,
     register,
     signOut,

@@ -97,3 +97,16 @@ describe('api/client request()', () => {
     await expect(request('POST', '/auth/sign-out')).resolves.toBeUndefined()
   })
 })
+
+describe('request() with a file', () => {
+  it('sends a FormData body as multipart, without a JSON content type', async () => {
+    const { requests, fetchMock } = stubFetch({ status: 201, body: { ok: true } })
+    const form = new FormData()
+    form.append('video', new Blob(['x'], { type: 'video/mp4' }), 'clip.mp4')
+    await request('POST', '/sets/abc/video', { body: form })
+    const init = fetchMock.mock.calls[0][1] as RequestInit
+    expect(init.body).toBe(form)
+    expect((init.headers as Record<string, string>)['Content-Type']).toBeUndefined()
+    expect(requests[0].method).toBe('POST')
+  })
+})

@@ -5,6 +5,8 @@ import { createMemoryHistory } from 'vue-router'
 import type { Role } from '@shared/schemas/common.schema'
 import { createAppRouter } from '@/router'
 import AppTabBar from '@/components/app/AppTabBar.vue'
+import { useSessionStore } from '@/stores/session'
+import { buildUser } from './helpers/fetch-stub'
 
 beforeEach(() => setActivePinia(createPinia()))
 
@@ -41,6 +43,21 @@ describe('AppTabBar', () => {
 
     expect(wrapper.findAll('svg.tab-icon')).toHaveLength(4)
     expect(wrapper.find('.van-icon').exists()).toBe(false)
+    wrapper.unmount()
+  })
+})
+
+describe('AppTabBar on a page below a tab', () => {
+  it('keeps Review desk active while the coach reviews one session (/review/12)', async () => {
+    const session = useSessionStore()
+    session.token = 'token'
+    session.user = buildUser({ role: 'coach' })
+    const router = createAppRouter(createMemoryHistory())
+    await router.push('/review/12')
+    await router.isReady()
+    const wrapper = mount(AppTabBar, { props: { role: 'coach' }, global: { plugins: [router] } })
+    expect(router.currentRoute.value.path).toBe('/review/12')
+    expect(wrapper.find('.van-tabbar-item--active').text()).toBe('Review desk')
     wrapper.unmount()
   })
 })

@@ -77,6 +77,26 @@ describe('SetCard', () => {
     expect(card.findAll('.set-card-plates__plate text').map((t) => t.text())).toEqual(['45', '45'])
   })
 
+  it('shows the coach comments from last time compactly as "Coach: …"', () => {
+    const coached = {
+      ...benchPress,
+      coachComments: [{ body: 'Keep the elbows tucked on the way down', author: 'Dana Reyes', createdAt: '2026-11-27T09:00:00.000Z' }],
+    }
+    const note = mountCard(warmup1, warmup1.targetLoadKg, 'kg', coached).get('[data-testid="coach-note"]')
+
+    expect(note.text()).toBe('Coach: Keep the elbows tucked on the way down')
+    expect(mountCard().find('[data-testid="coach-note"]').exists()).toBe(false)
+  })
+
+  it('marks the first working target "set by your coach" when the coach edited the next step', () => {
+    const byCoach = { ...benchPress, nextStepBy: 'coach' as const }
+
+    expect(mountCard(topSet, topSet.targetLoadKg, 'kg', byCoach).get('[data-testid="set-by-coach"]').text()).toBe('set by your coach')
+    expect(mountCard(warmup1, warmup1.targetLoadKg, 'kg', byCoach).find('[data-testid="set-by-coach"]').exists()).toBe(false)
+    expect(mountCard(backoffSet, backoffSet.targetLoadKg, 'kg', byCoach).find('[data-testid="set-by-coach"]').exists()).toBe(false)
+    expect(mountCard(topSet, topSet.targetLoadKg, 'kg', { ...benchPress, nextStepBy: 'lifter' }).find('[data-testid="set-by-coach"]').exists()).toBe(false)
+  })
+
   it('shows no plates for a stack exercise', () => {
     expect(mountCard(flySets[0], 20, 'kg', cableFly, flySets).find('[data-testid="set-plates"]').exists()).toBe(false)
   })
