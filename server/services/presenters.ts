@@ -42,6 +42,8 @@ export function toSetLog(set: SetLogModel): SetLog {
 export interface StoredSessionSummary {
   workingSets: number
   volumeKg: number
+  /** Rep and estimated-1RM records set in the session (stored when it is finished). */
+  records?: number
 }
 
 export function toSessionSummary(session: SessionModel): SessionSummary {
@@ -56,5 +58,6 @@ export function toSessionSummary(session: SessionModel): SessionSummary {
     completedAt: session.completedAt?.toISOString() ?? null,
     workingSets: summary.workingSets,
     volumeKg: summary.volumeKg,
+    records: summary.records ?? 0,
   }
 }

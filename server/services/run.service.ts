@@ -334,6 +334,14 @@ export async function addExercise(lifter: UserModel, sessionId: number, input: A
   return runSessionView(session, lifter)
 }
 
+/** Adds the review desk's flags and the number of records to a finished session's stored totals. */
+export async function storeReviewSummary(session: SessionModel, athlete: UserModel) {
+  const flags = await computeSessionFlags(session, athlete)
+  const report = await buildReport(session, athlete)
+  const records = report.exercises.reduce((n, e) => n + e.records.length, 0)
+  await session.update({ summary: { ...(session.summary as object), flags, records } })
+}
+
 /**
  * Finishes the session: the server recomputes and stores the totals and the review desk's
  * flags, and moves the rotation on. `justCompleted` is false when it was already finished.
@@ -354,7 +362,7 @@ export async function completeSession(lifter: UserModel, sessionId: number, inpu
         }
       }
     })
-    await session.update({ summary: { ...totals, flags: await computeSessionFlags(session, lifter) } })
+    await storeReviewSummary(session, lifter)
   }
   return { justCompleted, session, report: await buildReport(session, lifter) }
 }

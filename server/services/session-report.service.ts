@@ -41,9 +41,11 @@ export async function buildReport(session: SessionModel, athlete: UserModel): Pr
     block.sets.push(set)
   }
   const exerciseIds = [...new Set(blocks.map((b) => b.exercise.id))]
+  // The report reads as it did when the session was finished: only earlier sessions count.
+  const before = session.completedAt ?? undefined
   const [gym, history, bestRows, taken] = await Promise.all([
     gymOf(athlete),
-    historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id),
+    historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id, before),
     // Best reps at each load before this session: enough to find every record (see records.ts).
     SetLogModel.findAll({
       attributes: ['exerciseId', 'loadKg', [fn('MAX', col('reps')), 'reps']],
@@ -51,7 +53,14 @@ export async function buildReport(session: SessionModel, athlete: UserModel): Pr
         exerciseId: exerciseIds, kind: { [Op.ne]: 'warmup' }, reps: { [Op.gt]: 0 }, loadKg: { [Op.gt]: 0 },
         skipped: false, sessionId: { [Op.ne]: session.id },
       },
-      include: [{ model: SessionModel, as: 'session', attributes: [], where: { athleteId: athlete.id, status: 'completed' } }],
+      include: [
+        {
+          model: SessionModel,
+          as: 'session',
+          attributes: [],
+          where: { athleteId: athlete.id, status: 'completed', ...(before ? { completedAt: { [Op.lt]: before } } : {}) },
+        },
+      ],
       group: ['exerciseId', 'loadKg'],
       raw: true,
     }) as unknown as Promise<Array<{ exerciseId: number; loadKg: number; reps: number }>>,

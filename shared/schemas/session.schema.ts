@@ -42,6 +42,8 @@ export const sessionSummarySchema = z.object({
   completedAt: z.string().nullable(),
   workingSets: z.number().int(),
   volumeKg: z.number(),
+  /** Rep and estimated-1RM records set in the session. */
+  records: z.number().int().default(0),
 })
 export type SessionSummary = z.infer<typeof sessionSummarySchema>
 

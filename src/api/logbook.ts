@@ -12,9 +12,9 @@ import { request, requestBlob } from './client'
 
 export type LogbookFormat = 'csv' | 'json'
 
-/** The whole logbook as a file (CSV or JSON) with the server's file name. */
-export async function downloadLogbook(format: LogbookFormat): Promise<{ blob: Blob; filename: string | null }> {
-  return requestBlob('/logbook/export', { format })
+/** The whole logbook as a file (CSV or JSON) with the server's file name; a coach names the athlete. */
+export async function downloadLogbook(format: LogbookFormat, athleteId?: number): Promise<{ blob: Blob; filename: string | null }> {
+  return requestBlob('/logbook/export', { format, athleteId })
 }
 
 /** The JSON export read as data: every completed session with its logged sets, oldest first. */

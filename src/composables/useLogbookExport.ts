@@ -16,16 +16,17 @@ function saveFile(blob: Blob, filename: string) {
 }
 
 /**
- * The logbook as a CSV or JSON file. The API wants the bearer token, so the file is fetched
- * here and saved from memory instead of opened by a plain link.
+ * The logbook as a CSV or JSON file (the lifter's own, or a coach's athlete's). The API wants
+ * the bearer token, so the file is fetched here and saved from memory instead of opened by a
+ * plain link.
  */
-export function useLogbookExport() {
+export function useLogbookExport(athleteId?: number) {
   const exporting = ref<LogbookFormat | null>(null)
 
   async function exportLogbook(format: LogbookFormat): Promise<void> {
     exporting.value = format
     try {
-      const { blob, filename } = await downloadLogbook(format)
+      const { blob, filename } = await downloadLogbook(format, athleteId)
       saveFile(blob, filename ?? `chalkline-logbook.${format}`)
     } finally {
       exporting.value = null

@@ -38,7 +38,7 @@ const noor: AthleteRow = {
   plateauLifts: [], waitingReview: 1, e1rmTrend: [],
 }
 const sessions: SessionSummary[] = [
-  { id: 90, athleteId: 5, dayName: 'Lower', version: 'II', status: 'completed', startedAt: '2026-11-30T17:00:00.000Z', completedAt: '2026-11-30T18:00:00.000Z', workingSets: 14, volumeKg: 9000 },
+  { id: 90, athleteId: 5, dayName: 'Lower', version: 'II', status: 'completed', startedAt: '2026-11-30T17:00:00.000Z', completedAt: '2026-11-30T18:00:00.000Z', workingSets: 14, volumeKg: 9000, records: 0 },
 ]
 const progress: Progress = {
   e1rm: [{ exerciseId: 1, exercise: 'Back squat', points: [{ date: '2026-11-02T10:00:00.000Z', e1rmKg: 100 }, { date: '2026-11-30T10:00:00.000Z', e1rmKg: 105 }] }],
@@ -150,5 +150,22 @@ describe("the coach's e-mail setting", () => {
     await flushPromises()
     expect(lifterView.find('[data-testid="notify-completed"]').exists()).toBe(false)
     lifterView.unmount()
+  })
+})
+
+describe("AthleteDetailView: the athlete's logbook file", () => {
+  it("downloads the athlete's logbook as CSV with the coach's token", async () => {
+    const csv = 'date,exercise\n'
+    const { view, fetchMock } = await openNoor()
+    fetchMock.mockResolvedValueOnce(new Response(csv, { status: 200, headers: { 'Content-Type': 'text/csv', 'Content-Disposition': 'attachment; filename="chalkline-logbook.csv"' } }))
+    const createObjectURL = vi.fn(() => 'blob:x')
+    vi.stubGlobal('URL', Object.assign(URL, { createObjectURL, revokeObjectURL: vi.fn() }))
+    await view.get('[data-testid="athlete-export-csv"]').trigger('click')
+    await flushPromises()
+    const [url, init] = fetchMock.mock.calls.at(-1) as [string, RequestInit]
+    expect(url).toBe('/api/logbook/export?format=csv&athleteId=5')
+    expect((init.headers as Record<string, string>).Authorization).toBe('Bearer tok')
+    expect(createObjectURL).toHaveBeenCalled()
+    view.unmount()
   })
 })

@@ -41,7 +41,7 @@ const backoff = setLog({ position: 3, kind: 'backoff', targetLoadKg: 85, loadKg:
 const unlogged = setLog({ position: 4, kind: 'backoff', loadKg: null, reps: null, loggedAt: null })
 const detail: SessionDetail = {
   id: 41, athleteId: 12, dayName: 'Push', version: 'I', status: 'completed',
-  startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:00:00.000Z', workingSets: 2, volumeKg: 1550, note: null,
+  startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:00:00.000Z', workingSets: 2, volumeKg: 1550, records: 0, note: null,
   sets: [topSet, backoff, unlogged],
 }
 const review: SessionReview = { reviewedAt: null, reviewedBy: null, flags: [], comments: [] }

@@ -29,7 +29,7 @@ afterEach(() => {
 })
 
 const sessions: SessionSummary[] = [
-  { id: 41, athleteId: 7, dayName: 'Push', version: 'II', status: 'completed', startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:05:00.000Z', workingSets: 9, volumeKg: 4535.9237 },
+  { id: 41, athleteId: 7, dayName: 'Push', version: 'II', status: 'completed', startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:05:00.000Z', workingSets: 9, volumeKg: 4535.9237, records: 0 },
 ]
 const progress: Progress = {
   e1rm: [

@@ -34,7 +34,7 @@ function row(id: number, athlete: { id: number; name: string }, overrides: Parti
   return {
     session: {
       id, athleteId: athlete.id, dayName: 'Push', version: 'I', status: 'completed',
-      startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:00:00.000Z', workingSets: 10, volumeKg: 6543.2,
+      startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:00:00.000Z', workingSets: 10, volumeKg: 6543.2, records: 0,
     },
     athlete,
     flags: [],

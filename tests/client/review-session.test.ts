@@ -48,7 +48,7 @@ const fly2 = setLog({ exerciseId: 2, exerciseName: 'Cable fly', position: 101, t
 
 const summary = {
   id: 41, athleteId: 12, dayName: 'Push', version: 'I' as const, status: 'completed' as const,
-  startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:00:00.000Z', workingSets: 4, volumeKg: 2145,
+  startedAt: '2026-12-01T11:00:00.000Z', completedAt: '2026-12-01T12:00:00.000Z', workingSets: 4, volumeKg: 2145, records: 0,
 }
 const detail: SessionDetail = { ...summary, note: 'Left shoulder felt tight on the last set.', sets: [warmup1, warmup2, topSet, backoff, fly1, fly2] }
 

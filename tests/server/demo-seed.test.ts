@@ -72,6 +72,14 @@ describe('the demo club', () => {
     expect(work(tops.at(-1)!)).toBeGreaterThan(work(tops[0]))
   })
 
+  it('stores the records each session set, shown in the logbook list', async () => {
+    const res = await request(t.app).get('/api/sessions').query({ limit: 200 }).set(await signIn(DEMO_ACCOUNTS.lifterKg.email))
+    const records = res.body.sessions.map((s: { records: number }) => s.records)
+    // The lifter progresses over six weeks, so later sessions beat earlier numbers; the first cannot.
+    expect(records.some((n: number) => n > 0)).toBe(true)
+    expect(records.at(-1)).toBe(0)
+  })
+
   it("shows the kg lifter today's session from the rotation, and the coach the three athletes", async () => {
     const today = await request(t.app).get('/api/train/today').set(await signIn(DEMO_ACCOUNTS.lifterKg.email))
     expect(today.status).toBe(200)

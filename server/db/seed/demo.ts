@@ -10,7 +10,7 @@ import { rotationEntry } from '@shared/domain/rotation'
 import { backoffTarget, DEFAULT_REST_SECONDS, DEFAULT_SCHEMES } from '@shared/domain/schemes'
 import { sessionTotals } from '@shared/domain/summary'
 import type { AppConfig } from '../../config'
-import { computeSessionFlags } from '../../services/review-flags.service'
+import { storeReviewSummary } from '../../services/run.service'
 import {
   AssignmentModel, ClubModel, CoachAthleteModel, DayVersionModel, EquipmentProfileModel, ExerciseModel,
   PlanDayModel, PlanModel, SessionModel, SetLogModel, SlotModel, UserModel,
@@ -211,10 +211,10 @@ export async function seedDemo(config: AppConfig, now = new Date()) {
       await simulateHistory(athlete, assignment, plan.days, gyms.get(athlete.id)!, profile, now, transaction)
     }
   })
-  // The review desk's flags, as the server stores them when each session is finished.
+  // The review desk's flags and records, as the server stores them when each session is finished.
   for (const athlete of await UserModel.findAll({ where: { role: 'lifter' } })) {
     for (const session of await SessionModel.findAll({ where: { athleteId: athlete.id, status: 'completed' } })) {
-      await session.update({ summary: { ...(session.summary as object), flags: await computeSessionFlags(session, athlete) } })
+      await storeReviewSummary(session, athlete)
     }
   }
 }

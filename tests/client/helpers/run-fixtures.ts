@@ -79,7 +79,7 @@ export function buildRunSession(): RunSession {
     startedAt: '2026-12-01T17:00:00.000Z',
     completedAt: null,
     workingSets: 0,
-    volumeKg: 0,
+    volumeKg: 0, records: 0,
     exercises: [benchPress, cableFly],
     sets: [
       buildSet({ ...bench, position: 0, kind: 'warmup', targetLoadKg: 25, targetRepsMin: 6, targetRepsMax: 6 }),
