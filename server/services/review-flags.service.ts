@@ -2,9 +2,8 @@ import { Op } from 'sequelize'
 import type { PerformedSet } from '@shared/domain/progression'
 import { reviewFlags, type ReviewBlock, type ReviewFlag } from '@shared/domain/review-flags'
 import { rotationEntry } from '@shared/domain/rotation'
-import type { SlotRole } from '@shared/domain/schemes'
-import { AssignmentModel, ExerciseModel, PlanDayModel, SessionModel, SetLogModel, type UserModel } from '../db'
-import { blockKey, equipmentOf, gymOf, historyFor } from './session-planning.service'
+import { AssignmentModel, PlanDayModel, SessionModel, type SetLogModel, type UserModel } from '../db'
+import { blockKey, equipmentOf, gymOf, historyFor, sessionBlocks } from './session-planning.service'
 import { slotsOf } from './train.service'
 
 const DAY_MS = 86_400_000
@@ -30,20 +29,7 @@ async function restDaysBetween(previous: SessionModel, session: SessionModel): P
  */
 export async function computeSessionFlags(session: SessionModel, athlete: UserModel): Promise<ReviewFlag[]> {
   const completedAt = session.completedAt ?? new Date()
-  const sets = await SetLogModel.findAll({
-    where: { sessionId: session.id },
-    include: [{ model: ExerciseModel, as: 'exercise' }],
-    order: [['position', 'ASC']],
-  })
-  const groups: Array<{ exercise: ExerciseModel; slotId: number | null; role: SlotRole; sets: SetLogModel[] }> = []
-  for (const set of sets) {
-    let group = groups.find((g) => g.exercise.id === set.exerciseId && g.slotId === set.slotId)
-    if (!group) {
-      group = { exercise: set.exercise!, slotId: set.slotId, role: (set.role ?? 'accessory') as SlotRole, sets: [] }
-      groups.push(group)
-    }
-    group.sets.push(set)
-  }
+  const groups = await sessionBlocks(session.id)
   const [gym, history, previous] = await Promise.all([
     gymOf(athlete),
     historyFor(athlete.id, groups.map((g) => ({ exerciseId: g.exercise.id, slotId: g.slotId })), session.id, completedAt),

@@ -146,3 +146,30 @@ export function planBlock(input: {
     restSeconds: input.restSec,
   })
 }
+
+export interface SessionBlock {
+  exercise: ExerciseModel
+  slotId: number | null
+  role: SlotRole
+  /** The block's sets in session order. */
+  sets: SetLogModel[]
+}
+
+/** A session's sets with their exercises, grouped into exercise blocks in session order. */
+export async function sessionBlocks(sessionId: number): Promise<SessionBlock[]> {
+  const sets = await SetLogModel.findAll({
+    where: { sessionId },
+    include: [{ model: ExerciseModel, as: 'exercise' }],
+    order: [['position', 'ASC']],
+  })
+  const blocks: SessionBlock[] = []
+  for (const set of sets) {
+    let block = blocks.find((b) => b.exercise.id === set.exerciseId && b.slotId === set.slotId)
+    if (!block) {
+      block = { exercise: set.exercise!, slotId: set.slotId, role: (set.role ?? 'accessory') as SlotRole, sets: [] }
+      blocks.push(block)
+    }
+    block.sets.push(set)
+  }
+  return blocks
+}

@@ -1,11 +1,10 @@
 import { Op, col, fn } from 'sequelize'
 import { detectPlateau, nextSteps, type NextStepOption, type PerformedSet } from '@shared/domain/progression'
 import { bestE1rm, sessionRecords, type LoadReps } from '@shared/domain/records'
-import type { SlotRole } from '@shared/domain/schemes'
 import type { ExerciseReport, NextStepOptionView, SessionReport } from '@shared/schemas/run.schema'
-import { ExerciseModel, NextStepModel, SessionModel, SetLogModel, type UserModel } from '../db'
+import { NextStepModel, SessionModel, SetLogModel, type UserModel } from '../db'
 import { toSessionSummary } from './presenters'
-import { blockKey, equipmentOf, gymOf, historyFor } from './session-planning.service'
+import { blockKey, equipmentOf, gymOf, historyFor, sessionBlocks } from './session-planning.service'
 
 function optionView(option: NextStepOption | null | undefined): NextStepOptionView | null {
   if (!option) return null
@@ -26,20 +25,7 @@ function optionView(option: NextStepOption | null | undefined): NextStepOptionVi
  * and what the lifter took. Computed from stored sets, so it reads the same every time.
  */
 export async function buildReport(session: SessionModel, athlete: UserModel): Promise<SessionReport> {
-  const sets = await SetLogModel.findAll({
-    where: { sessionId: session.id },
-    include: [{ model: ExerciseModel, as: 'exercise' }],
-    order: [['position', 'ASC']],
-  })
-  const blocks: Array<{ exercise: ExerciseModel; slotId: number | null; role: SlotRole; sets: SetLogModel[] }> = []
-  for (const set of sets) {
-    let block = blocks.find((b) => b.exercise.id === set.exerciseId && b.slotId === set.slotId)
-    if (!block) {
-      block = { exercise: set.exercise!, slotId: set.slotId, role: (set.role ?? 'accessory') as SlotRole, sets: [] }
-      blocks.push(block)
-    }
-    block.sets.push(set)
-  }
+  const blocks = await sessionBlocks(session.id)
   const exerciseIds = [...new Set(blocks.map((b) => b.exercise.id))]
   // The report reads as it did when the session was finished: only earlier sessions count.
   const before = session.completedAt ?? undefined

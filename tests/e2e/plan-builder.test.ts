@@ -3,20 +3,14 @@ import { join } from 'node:path'
 import type { Browser, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
-import { launchChromium, phoneContext } from '../helpers/browser'
+import { launchChromium, phoneContext, signInThroughForm } from '../helpers/browser'
 import { startBuiltServer } from '../helpers/server-process'
 
 let server: Awaited<ReturnType<typeof startBuiltServer>>
 let browser: Browser
 const artifacts = join('test-results', 'screenshots')
 
-async function signIn(page: Page, email: string) {
-  await page.goto(server.baseUrl + '/sign-in')
-  await page.getByLabel('E-mail').fill(email)
-  await page.getByLabel('Password').fill(DEMO_PASSWORD)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.getByRole('button', { name: 'I understand' }).click()
-}
+const signIn = (page: Page, email: string) => signInThroughForm(page, server.baseUrl, email, DEMO_PASSWORD)
 
 beforeAll(async () => {
   server = await startBuiltServer()
