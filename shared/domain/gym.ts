@@ -25,13 +25,14 @@ const range = (from: number, to: number, step: number) =>
 
 /**
  * A kilogram gym: the competition plate set on a 20 kg bar, dumbbells 2-50 kg in 2 kg steps,
- * stacks 5-150 kg in 5 kg steps with a 2.5 kg add-on, 1.25-20 kg plates for a dip belt.
+ * machines 5-250 kg in 5 kg steps with a 2.5 kg add-on (the heavy end is the plate-loaded leg
+ * press and hack squat), 1.25-20 kg plates for a dip belt.
  * The counts and ranges are common practice for a commercial gym, no published source.
  */
 export const KG_GYM: GymProfile = {
   barbell: KG_COMPETITION_SET,
   dumbbell: { kind: 'dumbbell', unit: 'kg', pairs: range(2, 50, 2) },
-  stack: { kind: 'stack', unit: 'kg', steps: range(5, 150, 5), addOns: [{ mass: 2.5, count: 1 }] },
+  stack: { kind: 'stack', unit: 'kg', steps: range(5, 250, 5), addOns: [{ mass: 2.5, count: 1 }] },
   bodyweight: {
     kind: 'bodyweight',
     unit: 'kg',
@@ -40,13 +41,13 @@ export const KG_GYM: GymProfile = {
 }
 
 /**
- * A pound gym: the common 45 lb bar set, dumbbells 5-100 lb in 5 lb steps, stacks 10-300 lb in
+ * A pound gym: the common 45 lb bar set, dumbbells 5-100 lb in 5 lb steps, machines 10-550 lb in
  * 10 lb steps with a 5 lb add-on, 2.5-45 lb plates for a dip belt (common practice).
  */
 export const LB_GYM: GymProfile = {
   barbell: LB_GYM_SET,
   dumbbell: { kind: 'dumbbell', unit: 'lb', pairs: range(5, 100, 5) },
-  stack: { kind: 'stack', unit: 'lb', steps: range(10, 300, 10), addOns: [{ mass: 5, count: 1 }] },
+  stack: { kind: 'stack', unit: 'lb', steps: range(10, 550, 10), addOns: [{ mass: 5, count: 1 }] },
   bodyweight: {
     kind: 'bodyweight',
     unit: 'lb',
