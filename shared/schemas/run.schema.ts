@@ -87,7 +87,8 @@ const reps = z.number().int().min(0).max(50, 'At most 50 reps')
 export const logSetSchema = z.object({
   exerciseId: z.number().int().positive(),
   slotId: z.number().int().positive().nullable(),
-  position: z.number().int().min(0).max(500),
+  // Exercise blocks are 100 positions apart (block i at i*100), so a long session runs past 500.
+  position: z.number().int().min(0).max(1_000_000),
   kind: setKindSchema,
   targetLoadKg: load.nullable(),
   targetRepsMin: reps.nullable(),

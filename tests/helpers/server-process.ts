@@ -20,8 +20,9 @@ export async function freePort(): Promise<number> {
  * Starts the built production server (dist/server/index.js, made by `npm run build`) on a free
  * loopback port over a fresh database that loads the demo club on first start.
  */
-export async function startBuiltServer(env: Record<string, string> = {}) {
-  const dir = mkdtempSync(join(tmpdir(), 'chalkline-e2e-'))
+export async function startBuiltServer(env: Record<string, string> = {}, options: { dir?: string } = {}) {
+  // Reusing a folder restarts the server over the same database (as after a crash).
+  const dir = options.dir ?? mkdtempSync(join(tmpdir(), 'chalkline-e2e-'))
   const port = await freePort()
   const child: ChildProcess = spawn(process.execPath, ['dist/server/index.js'], {
     env: {
@@ -51,14 +52,20 @@ export async function startBuiltServer(env: Record<string, string> = {}) {
     if (Date.now() > deadline) throw new Error(`server did not start within 60 s:\n${output}`)
     await new Promise((r) => setTimeout(r, 200))
   }
-  async function stop() {
-    if (child.exitCode === null) {
+  async function stop({ keepData = false } = {}) {
+    if (child.exitCode === null && child.signalCode === null) {
       const exited = new Promise((r) => child.once('exit', r))
       child.kill('SIGTERM')
       await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))])
       if (child.exitCode === null) child.kill('SIGKILL')
     }
-    rmSync(dir, { recursive: true, force: true })
+    if (!keepData) rmSync(dir, { recursive: true, force: true })
   }
-  return { baseUrl, port, dir, stop, output: () => output }
+  /** Kills the process at once, as a power cut would: no shutdown, no flush. */
+  async function kill() {
+    const exited = new Promise((r) => child.once('exit', r))
+    child.kill('SIGKILL')
+    await exited
+  }
+  return { baseUrl, port, dir, stop, kill, output: () => output }
 }

@@ -256,3 +256,17 @@ describe('empty sessions', () => {
     expect(ben!.unit).toBe('lb')
   })
 })
+
+describe('long sessions', () => {
+  it('logs a set of the sixth exercise (positions of block 5 start at 500)', async () => {
+    const current = (await request(t.app).get('/api/sessions/current').set(auth.ben)).body.session
+    if (current) await request(t.app).post(`/api/sessions/${current.id}/complete`).set(auth.ben).send({ completedAt: new Date().toISOString() })
+    const today = (await request(t.app).get('/api/train/today').query(TODAY).set(auth.ben)).body
+    const upper = today.planDays.find((d: { name: string }) => d.name === 'Upper')
+    const session: RunSession = (await start('ben', { dayId: upper.id, version: 'I' })).body.session
+    const sixth = session.sets.find((s) => s.position >= 500 && s.position < 600)
+    expect(sixth, 'the upper day has six exercises').toBeDefined()
+    const res = await request(t.app).put(`/api/sessions/${session.id}/sets/${sixth!.id}`).set(auth.ben).send(logBody(sixth!, { position: 501 }))
+    expect(res.status).toBe(200)
+  })
+})
