@@ -4,6 +4,7 @@ import type { Plugin } from 'vite'
 import vue from '@vitejs/plugin-vue'
 import Components from 'unplugin-vue-components/vite'
 import { VantResolver } from '@vant/auto-import-resolver'
+import { VitePWA } from 'vite-plugin-pwa'
 
 const alias = {
   '@': fileURLToPath(new URL('./src', import.meta.url)),
@@ -28,6 +29,36 @@ export default defineConfig({
   plugins: [
     vue(),
     vantIconFontLocalOnly(),
+    // Installable, and the app shell, fonts and sounds are cached so a started session runs with
+    // no network after one visit. The API is never cached: sets wait in the runner's outbox.
+    VitePWA({
+      registerType: 'autoUpdate',
+      injectRegister: 'script',
+      includeAssets: ['favicon.svg', 'icons/apple-touch-icon.png', 'sounds/*.wav'],
+      manifest: {
+        name: 'Chalkline',
+        short_name: 'Chalkline',
+        description: 'Your training session, one set at a time, and your coach\'s review.',
+        theme_color: '#12343B',
+        background_color: '#F2EFE6',
+        display: 'standalone',
+        start_url: '/train',
+        icons: [
+          { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+          { src: '/icons/icon-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        ],
+      },
+      workbox: {
+        globPatterns: ['**/*.{js,css,html,svg,png,woff2,wav}'],
+        navigateFallback: '/index.html',
+        navigateFallbackDenylist: [/^\/api\//, /^\/dev\//],
+        maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
+        // Take over open pages as soon as the cache is ready, so the first visit already works offline.
+        clientsClaim: true,
+        skipWaiting: true,
+      },
+    }),
     // Vant components are imported on demand; function APIs (showToast...) are imported by hand.
     Components({ resolvers: [VantResolver()], dts: false }),
   ],

@@ -43,7 +43,17 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   // Production: the same process serves the built client; unknown paths get the app shell.
   if (config.clientDist && existsSync(config.clientDist)) {
     const indexHtml = join(config.clientDist, 'index.html')
-    app.use(express.static(config.clientDist, { index: false, maxAge: '1h' }))
+    app.use(
+      express.static(config.clientDist, {
+        index: false,
+        maxAge: '1h',
+        // The service worker, its registration and the manifest must be checked on every visit,
+        // or an update would wait an hour; hashed assets can be cached.
+        setHeaders: (res, path) => {
+          if (/(sw\.js|registerSW\.js|workbox-[^/]*\.js|\.webmanifest|\.html)$/.test(path)) res.setHeader('Cache-Control', 'no-cache')
+        },
+      }),
+    )
     app.get(/^\/(?!api\/).*/, (_req, res) => {
       res.set('Cache-Control', 'no-cache').sendFile(indexHtml)
     })

@@ -1,17 +1,20 @@
-import { computed, ref } from 'vue'
+import { computed } from 'vue'
 import { acceptHMRUpdate, defineStore } from 'pinia'
-import { useLocalStorage } from '@vueuse/core'
+import { StorageSerializers, useLocalStorage } from '@vueuse/core'
 import type { RegisterInput, SignInInput, UpdateProfileInput, User } from '@shared/schemas/auth.schema'
 import type { Role } from '@shared/schemas/common.schema'
 import * as authApi from '@/api/auth'
 import { setAuthToken } from '@/api/client'
 
 export const TOKEN_STORAGE_KEY = 'chalkline.token'
+export const USER_STORAGE_KEY = 'chalkline.user'
 
-/** The signed-in user and their token (the token survives a reload; the user is fetched again). */
+/** The signed-in user and their token, both kept on the phone across reloads. */
 export const useSessionStore = defineStore('session', () => {
   const token = useLocalStorage<string | null>(TOKEN_STORAGE_KEY, null)
-  const user = ref<User | null>(null)
+  // Kept on the phone too, so the app opens signed in with no signal (the gym basement case);
+  // it is refreshed from the server whenever there is one.
+  const user = useLocalStorage<User | null>(USER_STORAGE_KEY, null, { serializer: StorageSerializers.object })
   setAuthToken(token.value)
 
   const isSignedIn = computed(() => token.value !== null && token.value !== '')
