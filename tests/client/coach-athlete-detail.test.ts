@@ -1,13 +1,13 @@
-import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest'
+import { beforeAll, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
-import { createPinia, setActivePinia, type Pinia } from 'pinia'
-import { RouterView, createMemoryHistory, type Router } from 'vue-router'
+import { type Pinia } from 'pinia'
+import { RouterView, type Router } from 'vue-router'
 import type { AthleteRow, Progress } from '@shared/schemas/athlete.schema'
 import type { SessionSummary } from '@shared/schemas/session.schema'
 import { setAuthToken } from '@/api/client'
-import { createAppRouter } from '@/router'
 import { useSessionStore } from '@/stores/session'
 import MeNotifySetting from '@/components/me/MeNotifySetting.vue'
+import { useAppHarness } from './helpers/app-harness'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
 
 let pinia: Pinia
@@ -19,17 +19,9 @@ beforeAll(async () => {
   await import('@/views/MeView.vue')
 }, 30_000)
 
-beforeEach(() => {
-  localStorage.clear()
-  pinia = createPinia()
-  setActivePinia(pinia)
-  router = createAppRouter(createMemoryHistory())
-})
-
-afterEach(() => {
-  setAuthToken(null)
-  vi.unstubAllGlobals()
-  document.body.innerHTML = ''
+useAppHarness((p, r) => {
+  pinia = p
+  router = r
 })
 
 const noor: AthleteRow = {

@@ -1,11 +1,12 @@
-import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest'
+import { beforeAll, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
-import { createPinia, setActivePinia, type Pinia } from 'pinia'
+import { type Pinia } from 'pinia'
 import { RouterView, createMemoryHistory, type Router } from 'vue-router'
 import type { InvitePreview } from '@shared/schemas/invite.schema'
 import { setAuthToken } from '@/api/client'
 import { createAppRouter } from '@/router'
 import { TOKEN_STORAGE_KEY, useSessionStore } from '@/stores/session'
+import { useAppHarness } from './helpers/app-harness'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
 
 const TOKEN = 'inv_4f9c2a7b1d8e6f3a0c5b'
@@ -18,17 +19,9 @@ beforeAll(async () => {
   await import('@/views/SignInView.vue')
 }, 30_000)
 
-beforeEach(() => {
-  localStorage.clear()
-  pinia = createPinia()
-  setActivePinia(pinia)
-  router = createAppRouter(createMemoryHistory())
-})
-
-afterEach(() => {
-  setAuthToken(null)
-  vi.unstubAllGlobals()
-  document.body.innerHTML = ''
+useAppHarness((p, r) => {
+  pinia = p
+  router = r
 })
 
 const preview = (overrides: Partial<InvitePreview> = {}): InvitePreview => ({

@@ -1,12 +1,12 @@
-import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest'
+import { beforeAll, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils'
-import { createPinia, setActivePinia, type Pinia } from 'pinia'
-import { RouterView, createMemoryHistory, type Router } from 'vue-router'
+import { type Pinia } from 'pinia'
+import { RouterView, type Router } from 'vue-router'
 import type { Invite } from '@shared/schemas/invite.schema'
 import { setAuthToken } from '@/api/client'
-import { createAppRouter } from '@/router'
 import { useSessionStore } from '@/stores/session'
 import AthletesPendingInvites from '@/components/coach/AthletesPendingInvites.vue'
+import { useAppHarness } from './helpers/app-harness'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
 
 let pinia: Pinia
@@ -16,17 +16,9 @@ beforeAll(async () => {
   await import('@/views/AthletesView.vue')
 }, 30_000)
 
-beforeEach(() => {
-  localStorage.clear()
-  pinia = createPinia()
-  setActivePinia(pinia)
-  router = createAppRouter(createMemoryHistory())
-})
-
-afterEach(() => {
-  setAuthToken(null)
-  vi.unstubAllGlobals()
-  document.body.innerHTML = ''
+useAppHarness((p, r) => {
+  pinia = p
+  router = r
 })
 
 const pending: Invite = { id: 11, name: 'Noor Vale', email: 'noor@example.com', expiresAt: '2026-12-08T10:00:00.000Z', acceptedAt: null }

@@ -1,10 +1,9 @@
-import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest'
+import { beforeAll, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
-import { createPinia, setActivePinia, type Pinia } from 'pinia'
-import { RouterView, createMemoryHistory, type Router } from 'vue-router'
-import { setAuthToken } from '@/api/client'
-import { createAppRouter } from '@/router'
+import { type Pinia } from 'pinia'
+import { RouterView, type Router } from 'vue-router'
 import { TOKEN_STORAGE_KEY, useSessionStore } from '@/stores/session'
+import { useAppHarness } from './helpers/app-harness'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
 
 const TOKEN = 'rst_8d1e0c7b6a5f4e3d2c1b'
@@ -18,17 +17,9 @@ beforeAll(async () => {
   await import('@/views/AthletesView.vue')
 }, 30_000)
 
-beforeEach(() => {
-  localStorage.clear()
-  pinia = createPinia()
-  setActivePinia(pinia)
-  router = createAppRouter(createMemoryHistory())
-})
-
-afterEach(() => {
-  setAuthToken(null)
-  vi.unstubAllGlobals()
-  document.body.innerHTML = ''
+useAppHarness((p, r) => {
+  pinia = p
+  router = r
 })
 
 async function open(path: string) {

@@ -1,12 +1,11 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils'
-import { createPinia, setActivePinia, type Pinia } from 'pinia'
-import { RouterView, createMemoryHistory, type Router } from 'vue-router'
+import { type Pinia } from 'pinia'
+import { RouterView, type Router } from 'vue-router'
 import type { Plan, PlanSummary } from '@shared/schemas/plan.schema'
 import type { Today } from '@shared/schemas/train.schema'
-import { setAuthToken } from '@/api/client'
-import { createAppRouter } from '@/router'
 import { useSessionStore } from '@/stores/session'
+import { useAppHarness } from './helpers/app-harness'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
 
 let pinia: Pinia
@@ -18,17 +17,9 @@ async function signInAndOpen(role: 'coach' | 'lifter', path: string) {
   await router.push(path)
 }
 
-beforeEach(() => {
-  localStorage.clear()
-  pinia = createPinia()
-  setActivePinia(pinia)
-  router = createAppRouter(createMemoryHistory())
-})
-
-afterEach(() => {
-  setAuthToken(null)
-  vi.unstubAllGlobals()
-  document.body.innerHTML = ''
+useAppHarness((p, r) => {
+  pinia = p
+  router = r
 })
 
 const summary: PlanSummary = {
