@@ -1,4 +1,4 @@
-import { beforeEach, describe, expect, it } from 'vitest'
+import { afterAll, beforeEach, describe, expect, it } from 'vitest'
 import { mount } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { createMemoryHistory } from 'vue-router'
@@ -9,6 +9,9 @@ import { useSessionStore } from '@/stores/session'
 import { buildUser } from './helpers/fetch-stub'
 
 beforeEach(() => setActivePinia(createPinia()))
+// Vant's tab bar measures itself 100, 200 and 300 ms after mounting (safe-area padding): let
+// those timers run before the test environment is taken down.
+afterAll(() => new Promise((resolve) => setTimeout(resolve, 350)))
 
 /** Mounts the tab bar after the router's first navigation (and its lazy view) has settled. */
 async function mountTabBar(role: Role) {
