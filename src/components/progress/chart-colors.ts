@@ -47,3 +47,22 @@ export function withAlpha(color: string, alpha: number): string {
   const [r, g, b] = [0, 2, 4].map((i) => parseInt(hex.slice(i, i + 2), 16))
   return `rgba(${r}, ${g}, ${b}, ${alpha})`
 }
+
+/**
+ * The axes every dated line chart shares: time along x (short dates), a load along y with its
+ * unit in the title, grid and ticks in the theme's colours.
+ */
+export function datedLoadScales(colors: ChartColors, yTitle: string, formatDate: (ms: number) => string) {
+  return {
+    x: {
+      type: 'linear' as const,
+      grid: { color: colors.grid },
+      ticks: { color: colors.muted, maxTicksLimit: 6, callback: (value: string | number) => formatDate(Number(value)) },
+    },
+    y: {
+      grid: { color: colors.grid },
+      ticks: { color: colors.muted },
+      title: { display: true, text: yTitle, color: colors.muted },
+    },
+  }
+}
