@@ -32,6 +32,10 @@ export async function acknowledgeCautions(_req: Request, res: Response) {
   res.json({ user: await auth.acknowledgeCautions(currentUser(res.locals)) })
 }
 
+export async function changePassword(req: Request, res: Response) {
+  res.json(await auth.changePassword(configOf(req), currentUser(res.locals), res.locals.body))
+}
+
 export async function deleteMe(req: Request, res: Response) {
   await auth.deleteAccount(req.app.locals.storage as UploadStorage, currentUser(res.locals), res.locals.body.password)
   res.status(204).end()

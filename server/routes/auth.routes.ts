@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { deleteAccountSchema, registerSchema, signInSchema, updateProfileSchema } from '@shared/schemas/auth.schema'
+import { changePasswordSchema, deleteAccountSchema, registerSchema, signInSchema, updateProfileSchema } from '@shared/schemas/auth.schema'
 import * as auth from '../controllers/auth.controller'
 import { authenticate } from '../middleware/auth'
 import { validate } from '../middleware/validate'
@@ -13,4 +13,5 @@ export const meRoutes = Router()
 meRoutes.get('/me', authenticate, auth.me)
 meRoutes.patch('/me', authenticate, validate({ body: updateProfileSchema }), auth.updateMe)
 meRoutes.post('/me/cautions', authenticate, auth.acknowledgeCautions)
+meRoutes.post('/me/password', authenticate, validate({ body: changePasswordSchema }), auth.changePassword)
 meRoutes.delete('/me', authenticate, validate({ body: deleteAccountSchema }), auth.deleteMe)

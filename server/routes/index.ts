@@ -19,7 +19,7 @@ export function apiRouter(config: AppConfig) {
   const api = Router()
   // Guessing and sending endpoints get a per-address attempt limit.
   const limited = authRateLimit(config)
-  for (const path of ['/auth/sign-in', '/auth/register', '/auth/password-reset', '/invites']) api.post(path, limited)
+  for (const path of ['/auth/sign-in', '/auth/register', '/auth/password-reset', '/invites', '/me/password']) api.post(path, limited)
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })

@@ -1,5 +1,5 @@
 import bcrypt from 'bcryptjs'
-import type { RegisterInput, SignInInput, UpdateProfileInput } from '@shared/schemas/auth.schema'
+import type { ChangePasswordInput, RegisterInput, SignInInput, UpdateProfileInput } from '@shared/schemas/auth.schema'
 import type { AppConfig } from '../config'
 import { PasswordResetModel, UserModel } from '../db'
 import { AppError } from '../errors'
@@ -85,6 +85,21 @@ export async function resetPassword(config: AppConfig, token: string, password: 
     )
     return { token: issueToken(config, user), user: toUser(user) }
   })
+}
+
+/**
+ * Changes the password of a signed-in user. Every token issued before stops working (the token
+ * version moves on), so other devices are signed out; the caller gets a fresh token to stay in.
+ */
+export async function changePassword(config: AppConfig, user: UserModel, input: ChangePasswordInput) {
+  if (!(await bcrypt.compare(input.currentPassword, user.passwordHash))) {
+    throw AppError.badRequest('Your current password is not right', [
+      { path: 'currentPassword', message: 'This is not your current password' },
+    ])
+  }
+  assertNotCommonPassword(input.newPassword, 'newPassword')
+  await user.update({ passwordHash: await bcrypt.hash(input.newPassword, config.bcryptCost), tokenVersion: user.tokenVersion + 1 })
+  return { token: issueToken(config, user), user: toUser(user) }
 }
 
 /** Deletes the account and everything that is only the user's (sessions, sets, videos and their files). */

@@ -58,3 +58,12 @@ export type UpdateProfileInput = z.infer<typeof updateProfileSchema>
 
 /** Deleting an account asks for the password once more. */
 export const deleteAccountSchema = z.object({ password: z.string().min(1, 'Enter your password').max(128) })
+
+/** Changing the password while signed in asks for the current one; other devices are signed out. */
+export const changePasswordSchema = z
+  .object({
+    currentPassword: z.string().min(1, 'Enter your current password').max(128),
+    newPassword: passwordSchema,
+  })
+  .refine((v) => v.currentPassword !== v.newPassword, { path: ['newPassword'], message: 'Choose a password you are not using now' })
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>

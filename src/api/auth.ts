@@ -3,6 +3,7 @@ import {
   authResponseSchema,
   userSchema,
   type AuthResponse,
+  type ChangePasswordInput,
   type RegisterInput,
   type SignInInput,
   type UpdateProfileInput,
@@ -44,4 +45,9 @@ export async function requestPasswordReset(email: string): Promise<void> {
 /** Sets a new password from an e-mailed link and signs in; 410 'reset_link_invalid'. */
 export function resetPassword(token: string, password: string): Promise<AuthResponse> {
   return request('POST', `/auth/password-reset/${encodeURIComponent(token)}`, { body: { password }, schema: authResponseSchema })
+}
+
+/** Changes the password while signed in; other devices are signed out and this one gets a fresh token. */
+export function changePassword(input: ChangePasswordInput): Promise<AuthResponse> {
+  return request('POST', '/me/password', { body: input, schema: authResponseSchema })
 }

@@ -1,7 +1,7 @@
 import { computed } from 'vue'
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { StorageSerializers, useLocalStorage } from '@vueuse/core'
-import type { RegisterInput, SignInInput, UpdateProfileInput, User } from '@shared/schemas/auth.schema'
+import type { ChangePasswordInput, RegisterInput, SignInInput, UpdateProfileInput, User } from '@shared/schemas/auth.schema'
 import type { Role } from '@shared/schemas/common.schema'
 import * as authApi from '@/api/auth'
 import { setAuthToken } from '@/api/client'
@@ -68,6 +68,12 @@ export const useSessionStore = defineStore('session', () => {
     user.value = await authApi.updateMe(input)
   }
 
+  /** The old token stops working on the server, so this device switches to the new one. */
+  async function changePassword(input: ChangePasswordInput) {
+    const result = await authApi.changePassword(input)
+    start(result.token, result.user)
+  }
+
   return {
     token,
     user,
@@ -82,6 +88,7 @@ export const useSessionStore = defineStore('session', () => {
     fetchMe,
     acknowledgeCautions,
     updateProfile,
+    changePassword,
   }
 })
 

@@ -158,6 +158,65 @@ describe('the signed-in user', () => {
   })
 })
 
+describe('POST /api/me/password', () => {
+  it('changes the password, signs out every other device, and keeps this one signed in with a new token', async () => {
+    const { user, auth } = await t.userWithToken('lifter')
+    const otherDevice = await request(t.app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
+    expect(otherDevice.status).toBe(200)
+
+    const res = await request(t.app)
+      .post('/api/me/password')
+      .set(auth)
+      .send({ currentPassword: TEST_PASSWORD, newPassword: 'a-fresh-long-password' })
+    expect(res.status).toBe(200)
+    expect(res.body.user.id).toBe(user.id)
+
+    // Both tokens issued before the change are refused; the one handed back works.
+    expect((await request(t.app).get('/api/me').set(auth)).status).toBe(401)
+    expect((await request(t.app).get('/api/me').set('Authorization', `Bearer ${otherDevice.body.token}`)).status).toBe(401)
+    expect((await request(t.app).get('/api/me').set('Authorization', `Bearer ${res.body.token}`)).status).toBe(200)
+
+    const oldSignIn = await request(t.app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
+    expect(oldSignIn.status).toBe(401)
+    const newSignIn = await request(t.app).post('/api/auth/sign-in').send({ email: user.email, password: 'a-fresh-long-password' })
+    expect(newSignIn.status).toBe(200)
+    const row = await UserModel.findByPk(user.id)
+    expect(row?.passwordHash).toMatch(/^\$2[aby]\$1\d\$/)
+  })
+
+  it('refuses a wrong current password with a 400 on that field, and keeps the old password and tokens', async () => {
+    const { auth } = await t.userWithToken('coach')
+    const res = await request(t.app)
+      .post('/api/me/password')
+      .set(auth)
+      .send({ currentPassword: 'not-my-password', newPassword: 'a-fresh-long-password' })
+    expect(res.status).toBe(400)
+    expect(res.body.error.issues.map((i: { path: string }) => i.path)).toEqual(['currentPassword'])
+    expect((await request(t.app).get('/api/me').set(auth)).status).toBe(200)
+  })
+
+  it('applies the same password rules as registration: length, common passwords, and not the same password', async () => {
+    const { auth } = await t.userWithToken('lifter')
+    const cases = [
+      { newPassword: 'short', field: 'newPassword' },
+      // On the common-passwords list that ships with zxcvbn-ts, as in the hardening test.
+      { newPassword: 'qwertyuiop', field: 'newPassword' },
+      { newPassword: TEST_PASSWORD, field: 'newPassword' },
+    ]
+    for (const { newPassword, field } of cases) {
+      const res = await request(t.app).post('/api/me/password').set(auth).send({ currentPassword: TEST_PASSWORD, newPassword })
+      expect(res.status, newPassword).toBe(400)
+      expect(res.body.error.issues.map((i: { path: string }) => i.path)).toContain(field)
+    }
+    expect((await request(t.app).get('/api/me').set(auth)).status).toBe(200)
+  })
+
+  it('needs a signed-in user', async () => {
+    const res = await request(t.app).post('/api/me/password').send({ currentPassword: TEST_PASSWORD, newPassword: 'a-fresh-long-password' })
+    expect(res.status).toBe(401)
+  })
+})
+
 describe('unknown routes', () => {
   it('answers a JSON 404', async () => {
     const res = await request(t.app).get('/api/nothing-here')
