@@ -1,0 +1,260 @@
+/**
+ * 4. API throughput and latency: autocannon on loopback against the production server over the
+ * large demo club, next to a bare Express JSON route measured in the same run.
+ *
+ * Run alone: `tsx tests/bench/api.ts` (needs a build in dist/, or CHALKLINE_DIST).
+ */
+import { spawn } from 'node:child_process'
+import { randomUUID } from 'node:crypto'
+import { join } from 'node:path'
+import autocannon from 'autocannon'
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
+import type { RunSession, RunSet } from '../../shared/schemas/run.schema'
+import { freePort } from '../helpers/server-process'
+import { budget, type BenchContext, type BenchPart } from './bench-types'
+import { largeDatabaseCopy } from './large-db'
+import { startProductionServer, type ProductionServer } from './production-server'
+
+const CONNECTIONS = 10
+const DURATION_S = 10
+const FIXED_RATE = 200
+const FIXED_RATE_DURATION_S = 20
+const LIFTERS = 20
+
+export interface Measured {
+  name: string
+  requestsPerSecond: number
+  p50Ms: number
+  p90Ms: number
+  p99Ms: number
+  maxMs: number
+  requests: number
+  errors: number
+  non2xx: number
+}
+
+export interface Lifter {
+  token: string
+  sessionId: number
+  template: RunSet
+  nextPosition: number
+}
+
+export interface ApiWorld {
+  server: ProductionServer
+  bareUrl: string
+  coachToken: string
+  lifters: Lifter[]
+  today: string
+  stopBare: () => Promise<void>
+}
+
+async function json(res: Response) {
+  if (!res.ok) throw new Error(`${res.status} ${res.url}: ${await res.text()}`)
+  return res.json()
+}
+
+async function signIn(baseUrl: string, email: string): Promise<string> {
+  const body = await json(
+    await fetch(`${baseUrl}/api/auth/sign-in`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+    }),
+  )
+  return body.token
+}
+
+function authed(token: string, body?: unknown) {
+  return {
+    Authorization: `Bearer ${token}`,
+    ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
+  }
+}
+
+/** A set as the runner sends it: a new client-made UUID each time, at the lifter's next position. */
+export function nextSetRequest(lifter: Lifter) {
+  const now = new Date().toISOString()
+  const t = lifter.template
+  const body = {
+    exerciseId: t.exerciseId, slotId: t.slotId, position: lifter.nextPosition++, kind: 'backoff', targetLoadKg: 60,
+    targetRepsMin: 8, targetRepsMax: 12, targetReps: null, toFailure: false, targetRir: 2, loadKg: 60, reps: 10,
+    rir: 2, failure: false, skipped: false, note: null, loggedAt: now, editedAt: now,
+  }
+  return { path: `/api/sessions/${lifter.sessionId}/sets/${randomUUID()}`, body: JSON.stringify(body) }
+}
+
+/** Starts the server over a copy of the large club, the bare baseline, and signs people in. */
+export async function openApiWorld(ctx: BenchContext, name: string): Promise<ApiWorld> {
+  const { path } = await largeDatabaseCopy(ctx, name)
+  const server = await startProductionServer(ctx.distDir, path, join(ctx.workDir, `${name}-server.log`))
+  const barePort = await freePort()
+  const bare = spawn(process.execPath, [join(ctx.root, 'tests/bench/bare-server.mjs')], {
+    env: { ...process.env, PORT: String(barePort) },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  })
+  await new Promise<void>((resolve, reject) => {
+    bare.stdout!.once('data', () => resolve())
+    bare.once('exit', (code) => reject(new Error(`bare server exited with ${code}`)))
+  })
+  const today = new Date().toISOString().slice(0, 10)
+  const coachToken = await signIn(server.baseUrl, DEMO_ACCOUNTS.coach.email)
+  const athletes: { email: string }[] = (await json(await fetch(`${server.baseUrl}/api/athletes`, { headers: authed(coachToken) }))).athletes
+  // The busiest lifters of the large club: each starts today's session, as at a gym at peak time.
+  const lifters: Lifter[] = []
+  for (const athlete of athletes.slice(-LIFTERS)) {
+    const token = await signIn(server.baseUrl, athlete.email)
+    const started = await json(
+      await fetch(`${server.baseUrl}/api/sessions?date=${today}&tzOffset=0`, { method: 'POST', headers: authed(token, {}), body: '{}' }),
+    )
+    const session: RunSession = started.session
+    const template = session.sets.find((s) => s.kind !== 'warmup') ?? session.sets[0]
+    if (!template) throw new Error(`no sets in the session of ${athlete.email}`)
+    lifters.push({ token, sessionId: session.id, template, nextPosition: 10_000 })
+  }
+  return {
+    server,
+    bareUrl: `http://127.0.0.1:${barePort}`,
+    coachToken,
+    lifters,
+    today,
+    async stopBare() {
+      const exited = new Promise((r) => bare.once('exit', r))
+      bare.kill('SIGTERM')
+      await exited
+    },
+  }
+}
+
+function summarise(name: string, r: autocannon.Result): Measured {
+  return {
+    name,
+    requestsPerSecond: r.requests.average,
+    p50Ms: r.latency.p50,
+    p90Ms: r.latency.p90,
+    p99Ms: r.latency.p99,
+    maxMs: r.latency.max,
+    requests: r.requests.total,
+    errors: r.errors + r.timeouts,
+    non2xx: r.non2xx,
+  }
+}
+
+export async function cannon(name: string, options: autocannon.Options): Promise<Measured> {
+  const result = await autocannon({ connections: CONNECTIONS, duration: DURATION_S, ...options })
+  return summarise(name, result)
+}
+
+function setPuts(world: ApiWorld): autocannon.Request[] {
+  let turn = 0
+  return [
+    {
+      method: 'PUT',
+      setupRequest: (req) => {
+        const lifter = world.lifters[turn++ % world.lifters.length]!
+        const { path, body } = nextSetRequest(lifter)
+        return { ...req, path, body, headers: authed(lifter.token, {}) }
+      },
+    },
+  ]
+}
+
+function barePuts(world: ApiWorld): autocannon.Request[] {
+  return [
+    {
+      method: 'PUT',
+      setupRequest: (req) => {
+        const { body } = nextSetRequest(world.lifters[0]!)
+        return { ...req, path: `/bare/${randomUUID()}`, body, headers: { 'Content-Type': 'application/json' } }
+      },
+    },
+  ]
+}
+
+function todayGets(world: ApiWorld): autocannon.Request[] {
+  let turn = 0
+  return [
+    {
+      method: 'GET',
+      setupRequest: (req) => {
+        const lifter = world.lifters[turn++ % world.lifters.length]!
+        return { ...req, path: `/api/train/today?date=${world.today}&tzOffset=0`, headers: authed(lifter.token) }
+      },
+    },
+  ]
+}
+
+const fmt = (n: number, digits = 1) => n.toFixed(digits)
+
+export async function run(ctx: BenchContext): Promise<BenchPart> {
+  const world = await openApiWorld(ctx, 'api')
+  try {
+    const { server, bareUrl } = world
+    ctx.log('api: warm-up')
+    await cannon('warm-up', { url: server.baseUrl, duration: 3, requests: todayGets(world) })
+    await cannon('warm-up', { url: bareUrl + '/bare', duration: 2 })
+
+    ctx.log('api: maximum throughput, 10 connections, 10 s each')
+    const bareGet = await cannon('Bare Express: GET JSON', { url: bareUrl + '/bare' })
+    const barePut = await cannon('Bare Express: PUT JSON body', { url: bareUrl, requests: barePuts(world) })
+    const setPut = await cannon('PUT a set log', { url: server.baseUrl, requests: setPuts(world) })
+    const today = await cannon("GET today's session", { url: server.baseUrl, requests: todayGets(world) })
+    const athletes = await cannon('GET athlete table (150 athletes)', {
+      url: `${server.baseUrl}/api/athletes`,
+      headers: authed(world.coachToken),
+    })
+    const athleteCount = (await json(await fetch(`${server.baseUrl}/api/athletes`, { headers: authed(world.coachToken) }))).athletes.length
+
+    ctx.log(`api: fixed rate ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s`)
+    const setAtRate = await cannon(`PUT a set log at ${FIXED_RATE} req/s`, {
+      url: server.baseUrl, requests: setPuts(world), overallRate: FIXED_RATE, duration: FIXED_RATE_DURATION_S,
+    })
+    const bareAtRate = await cannon(`Bare Express PUT at ${FIXED_RATE} req/s`, {
+      url: bareUrl, requests: barePuts(world), overallRate: FIXED_RATE, duration: FIXED_RATE_DURATION_S,
+    })
+
+    const maxRuns = [bareGet, barePut, setPut, today, athletes]
+    const ratioPut = setPut.requestsPerSecond / barePut.requestsPerSecond
+    const ratioGet = setPut.requestsPerSecond / bareGet.requestsPerSecond
+    const errors = [...maxRuns, setAtRate, bareAtRate].reduce((n, m) => n + m.errors + m.non2xx, 0)
+    const row = (m: Measured, ratio?: number) =>
+      `| ${m.name} | ${fmt(m.requestsPerSecond, 0)} | ${ratio === undefined ? '' : fmt(ratio * 100, 0) + ' %'} | ${fmt(m.p50Ms)} | ${fmt(m.p99Ms)} | ${fmt(m.maxMs)} | ${m.requests} | ${m.errors + m.non2xx} |`
+    const markdown = [
+      `autocannon ${CONNECTIONS} connections, ${DURATION_S} s per row, loopback, ${ctx.cores} cores shared by autocannon, the server and the baseline.`,
+      `Server: \`node dist/server/index.js\` (NODE_ENV=production, request log at info to a file) over the large demo club (${athleteCount} athletes on the coach's table).`,
+      `Set logs are spread over ${world.lifters.length} lifters with a started session; each request is a new set with a new UUID.`,
+      '',
+      '| Request | req/s | vs bare | p50 ms | p99 ms | max ms | requests | errors + non-2xx |',
+      '|---|---:|---:|---:|---:|---:|---:|---:|',
+      row(bareGet, 1),
+      row(barePut, barePut.requestsPerSecond / bareGet.requestsPerSecond),
+      row(setPut, ratioPut),
+      row(today, today.requestsPerSecond / bareGet.requestsPerSecond),
+      row(athletes, athletes.requestsPerSecond / bareGet.requestsPerSecond),
+      '',
+      `"vs bare": set logging against the bare PUT-with-JSON-body route; GET rows against the bare GET route. Set logging is ${fmt(ratioGet * 100, 0)} % of the bare GET route.`,
+      '',
+      `Fixed rate, ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s:`,
+      '',
+      '| Request | req/s | p50 ms | p90 ms | p99 ms | max ms | errors + non-2xx |',
+      '|---|---:|---:|---:|---:|---:|---:|',
+      ...[setAtRate, bareAtRate].map(
+        (m) => `| ${m.name} | ${fmt(m.requestsPerSecond, 0)} | ${fmt(m.p50Ms)} | ${fmt(m.p90Ms)} | ${fmt(m.p99Ms)} | ${fmt(m.maxMs)} | ${m.errors + m.non2xx} |`,
+      ),
+    ].join('\n')
+    return {
+      title: '4. API throughput and latency',
+      command: 'npm run bench -- --only api',
+      markdown,
+      figures: { connections: CONNECTIONS, durationS: DURATION_S, athleteCount, lifters: world.lifters.length, maxRuns, setAtRate, bareAtRate, ratioSetToBarePut: ratioPut, ratioSetToBareGet: ratioGet },
+      budgets: [
+        budget({ name: 'Set logging throughput vs bare Express PUT', value: ratioPut * 100, limit: 50, unit: '%', kind: 'min' }),
+        budget({ name: `Set logging p99 at ${FIXED_RATE} req/s`, value: setAtRate.p99Ms, limit: 25, unit: 'ms', kind: 'max', strict: true }),
+        budget({ name: 'Errors and non-2xx answers in the API runs', value: errors, limit: 0, unit: '', kind: 'max' }),
+      ],
+    }
+  } finally {
+    await world.server.stop()
+    await world.stopBare()
+  }
+}

@@ -1,0 +1,31 @@
+import { copyFileSync, existsSync } from 'node:fs'
+import { join } from 'node:path'
+import type { BenchContext } from './bench-types'
+
+let template: Promise<{ path: string; seeded: Awaited<ReturnType<typeof seed>> }> | undefined
+
+async function seed(path: string) {
+  // Loaded lazily: only the parts that need the large club pay for Sequelize and the seed.
+  const { seedLargeDemo } = await import('../../server/db/seed/large')
+  return seedLargeDemo(path)
+}
+
+/**
+ * The large demo club (`npm run seed:large`: 150 athletes with two years each), seeded once
+ * per benchmark run. Each caller gets its own copy, because the API part writes sets into it.
+ */
+export async function largeDatabaseCopy(ctx: BenchContext, name: string) {
+  template ??= (async () => {
+    const path = join(ctx.workDir, 'large-template.sqlite')
+    ctx.log('seeding the large demo club (150 athletes, two years each)...')
+    const seeded = await seed(path)
+    ctx.log(`seeded: ${JSON.stringify(seeded)}`)
+    return { path, seeded }
+  })()
+  const { path, seeded } = await template
+  const copy = join(ctx.workDir, `${name}.sqlite`)
+  // No connection is open on the template, so the file (and a write-ahead log, if one was left) is whole.
+  copyFileSync(path, copy)
+  if (existsSync(path + '-wal')) copyFileSync(path + '-wal', copy + '-wal')
+  return { path: copy, seeded }
+}
