@@ -1,34 +1,21 @@
 import { fileURLToPath, URL } from 'node:url'
 import { defineConfig } from 'vitest/config'
-import type { Plugin } from 'vite'
 import vue from '@vitejs/plugin-vue'
 import Components from 'unplugin-vue-components/vite'
 import { VantResolver } from '@vant/auto-import-resolver'
 import { VitePWA } from 'vite-plugin-pwa'
+import { vantIconSubset } from './build/vant-icon-subset.js'
 
 const alias = {
   '@': fileURLToPath(new URL('./src', import.meta.url)),
   '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
 }
 
-/**
- * Vant's icon font is inlined in its CSS as a data: URI, with a copy on a CDN as a fallback.
- * The app ships only the inlined one, so no request ever leaves our origin.
- */
-function vantIconFontLocalOnly(): Plugin {
-  return {
-    name: 'chalkline:vant-icon-font-local-only',
-    transform(code, id) {
-      if (!/[\\/]vant[\\/].*\.css/.test(id) || !code.includes('alicdn.com')) return null
-      return { code: code.replace(/,\s*url\((?:https?:)?\/\/at\.alicdn\.com[^)]*\)\s*format\(["']woff["']\)/g, ''), map: null }
-    },
-  }
-}
-
 export default defineConfig({
   plugins: [
     vue(),
-    vantIconFontLocalOnly(),
+    // Vant's inlined icon font cut to the icons the app can show, and never its CDN copy.
+    vantIconSubset(),
     // Installable, and the app shell, fonts and sounds are cached so a started session runs with
     // no network after one visit. The API is never cached: sets wait in the runner's outbox.
     VitePWA({

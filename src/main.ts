@@ -1,7 +1,6 @@
 import { createApp } from 'vue'
 import { createPinia } from 'pinia'
-import '@fontsource/roboto-condensed/latin-400.css'
-import '@fontsource/roboto-condensed/latin-700.css'
+import './styles/fonts.css'
 // Vant function APIs are not auto-imported with their styles: load them once here.
 import 'vant/es/toast/style'
 import 'vant/es/dialog/style'
