@@ -74,6 +74,8 @@ export default defineConfig({
           include: ['tests/server/**/*.test.ts'],
           environment: 'node',
           testTimeout: 20_000,
+          // Seeding the demo club in beforeAll takes seconds, longer on a busy 2-core machine.
+          hookTimeout: 60_000,
         },
       },
       {

@@ -1,6 +1,7 @@
 import { mkdirSync } from 'node:fs'
 import { dirname } from 'node:path'
 import { Sequelize } from 'sequelize'
+import { makeConcurrencySafe } from './sqlite-concurrency'
 import { ClubModel, CoachAthleteModel, InviteModel, UserModel, BodyWeightModel, PasswordResetModel } from './models/user.model'
 import { EquipmentProfileModel, ExerciseModel } from './models/exercise.model'
 import { AssignmentModel, DayVersionModel, PlanDayModel, PlanModel, SlotModel } from './models/plan.model'
@@ -78,6 +79,7 @@ export async function openDatabase(storage: string, options: { logging?: (sql: s
     pool: { max: 1, min: 1, idle: 60_000 },
   })
   // SQLite-only settings belong here, in the database setup, and nowhere else.
+  makeConcurrencySafe(sequelize)
   await sequelize.query('PRAGMA journal_mode = WAL')
   await sequelize.query('PRAGMA foreign_keys = ON')
   await sequelize.query('PRAGMA busy_timeout = 5000')
