@@ -87,16 +87,33 @@ export function nextSetRequest(lifter: Lifter) {
 /** Starts the server over a copy of the large club, the bare baseline, and signs people in. */
 export async function openApiWorld(ctx: BenchContext, name: string): Promise<ApiWorld> {
   const { path } = await largeDatabaseCopy(ctx, name)
-  const server = await startProductionServer(ctx.distDir, path, join(ctx.workDir, `${name}-server.log`))
+  // Signing in the benchmark's 21 users from one address would trip the per-address limit.
+  const server = await startProductionServer(ctx.distDir, path, join(ctx.workDir, `${name}-server.log`), { RATE_LIMIT_AUTH: '1000' })
   const barePort = await freePort()
   const bare = spawn(process.execPath, [join(ctx.root, 'tests/bench/bare-server.mjs')], {
     env: { ...process.env, PORT: String(barePort) },
     stdio: ['ignore', 'pipe', 'inherit'],
   })
-  await new Promise<void>((resolve, reject) => {
-    bare.stdout!.once('data', () => resolve())
-    bare.once('exit', (code) => reject(new Error(`bare server exited with ${code}`)))
-  })
+  const stopBare = async () => {
+    if (bare.exitCode !== null || bare.signalCode !== null) return
+    const exited = new Promise((r) => bare.once('exit', r))
+    bare.kill('SIGTERM')
+    await exited
+  }
+  try {
+    await new Promise<void>((resolve, reject) => {
+      bare.stdout!.once('data', () => resolve())
+      bare.once('exit', (code) => reject(new Error(`bare server exited with ${code}`)))
+    })
+    return await signInEveryone(server, `http://127.0.0.1:${barePort}`, stopBare)
+  } catch (error) {
+    await server.stop()
+    await stopBare()
+    throw error
+  }
+}
+
+async function signInEveryone(server: ProductionServer, bareUrl: string, stopBare: () => Promise<void>): Promise<ApiWorld> {
   const today = new Date().toISOString().slice(0, 10)
   const coachToken = await signIn(server.baseUrl, DEMO_ACCOUNTS.coach.email)
   const athletes: { email: string }[] = (await json(await fetch(`${server.baseUrl}/api/athletes`, { headers: authed(coachToken) }))).athletes
@@ -112,18 +129,7 @@ export async function openApiWorld(ctx: BenchContext, name: string): Promise<Api
     if (!template) throw new Error(`no sets in the session of ${athlete.email}`)
     lifters.push({ token, sessionId: session.id, template, nextPosition: 10_000 })
   }
-  return {
-    server,
-    bareUrl: `http://127.0.0.1:${barePort}`,
-    coachToken,
-    lifters,
-    today,
-    async stopBare() {
-      const exited = new Promise((r) => bare.once('exit', r))
-      bare.kill('SIGTERM')
-      await exited
-    },
-  }
+  return { server, bareUrl, coachToken, lifters, today, stopBare }
 }
 
 function summarise(name: string, r: autocannon.Result): Measured {

@@ -7,7 +7,10 @@ let template: Promise<{ path: string; seeded: Awaited<ReturnType<typeof seed>> }
 async function seed(path: string) {
   // Loaded lazily: only the parts that need the large club pay for Sequelize and the seed.
   const { seedLargeDemo } = await import('../../server/db/seed/large')
-  return seedLargeDemo(path)
+  // A smaller club for a quick try of the benchmark code itself; the report prints the real counts.
+  const athletes = process.env.BENCH_LARGE_ATHLETES ? Number(process.env.BENCH_LARGE_ATHLETES) : undefined
+  const weeks = process.env.BENCH_LARGE_WEEKS ? Number(process.env.BENCH_LARGE_WEEKS) : undefined
+  return seedLargeDemo(path, { athletes, weeks })
 }
 
 /**
