@@ -80,7 +80,7 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'jsdom' },
+        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'jsdom', setupFiles: ['tests/client/helpers/indexeddb-setup.ts'] },
       },
       {
         extends: true,

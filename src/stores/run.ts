@@ -1,47 +1,43 @@
-import { computed, ref } from 'vue'
+import { computed, onScopeDispose, ref, watch } from 'vue'
 import { acceptHMRUpdate, defineStore } from 'pinia'
-import { StorageSerializers, useEventListener, useLocalStorage } from '@vueuse/core'
+import { useEventListener } from '@vueuse/core'
 import { backoffTarget } from '@shared/domain/schemes'
 import type { SlotRole } from '@shared/schemas/train.schema'
 import type { LogSetInput, RunExercise, RunSession, RunSet, SessionReport, StartSessionInput } from '@shared/schemas/run.schema'
 import { ApiError } from '@/api/client'
 import * as runApi from '@/api/run'
+import {
+  openDeviceStore,
+  type DeviceContents,
+  type DeviceStore,
+  type OutboxEntry,
+  type RestClockState,
+  type RunnerSnapshot,
+} from '@/offline/device-store'
+import { changesFromLegacy, readLegacyRunData, removeLegacyRunData, type LegacyRunData } from '@/offline/legacy-run-storage'
 import { localDay } from '@/utils/dates'
 import { newUuid } from '@/utils/uuid'
 
 /**
  * The session in progress on this device: its sets, the current set, the rest clock and the
- * outbox of set logs. Everything is kept in localStorage (written synchronously on every change),
- * so a reload or a crash resumes at the same set with the same rest clock.
+ * outbox of set logs. All of it is kept on the phone in IndexedDB (`src/offline/device-store.ts`),
+ * so a reload or a crash resumes at the same set with the same rest clock and the same unsent sets.
  *
- * Logging never waits for the network: the store changes at once and the PUT goes into an ordered
- * queue, sent one at a time and retried with backoff on no signal or a 5xx. Each queued item
- * carries the set's full body with its `editedAt`, and the server is idempotent by the set's
- * UUID, so a retry can never make a duplicate.
+ * Logging never waits for the network or the disk: the store changes at once, and the changes of
+ * that moment are written in one IndexedDB transaction right after. A set is sent only once its
+ * outbox entry has committed, in outbox order, one at a time, retried with backoff on no signal or
+ * a 5xx, and removed only when the server has acknowledged it. Each entry carries the set's full
+ * body with its `editedAt`; a later edit of the same set replaces the entry (the server keeps the
+ * later edit too), and the server is idempotent by the set's UUID, so a retry never duplicates.
+ *
+ * With no IndexedDB (some private modes) the store keeps everything in memory and says so in
+ * `storageWarning`: logging still works, but a reload loses what was not sent.
  */
 
-export const RUN_STORAGE_KEYS = {
-  session: 'chalkline.run.session',
-  jumpSetId: 'chalkline.run.jump',
-  rest: 'chalkline.run.rest',
-  queue: 'chalkline.run.queue',
-} as const
+export type { RestClockState } from '@/offline/device-store'
 
-/** The rest clock: it ends at `endsAt` (epoch ms); the cue flags keep each cue to once per rest. */
-export interface RestClockState {
-  endsAt: number
-  durationSec: number
-  warned?: boolean
-  ended?: boolean
-}
-
-/** One set PUT waiting to be sent. */
-export interface QueuedSetLog {
-  sessionId: number
-  setId: string
-  body: LogSetInput
-  attempts: number
-}
+/** One set PUT waiting to be sent (an outbox entry). */
+export type QueuedSetLog = OutboxEntry
 
 /** What the lifter did in a set (load in kg). */
 export interface SetResult {
@@ -89,18 +85,25 @@ export function toLogBody(set: RunSet): LogSetInput {
   }
 }
 
+/** How long a change waited for its IndexedDB commit (a user-timing entry, seen in the profiler). */
+function measureOutboxCommit(start: number) {
+  try {
+    performance.measure('chalkline:outbox-commit', { start, end: performance.now() })
+  } catch {
+    // no user timing here
+  }
+}
+
 export const useRunStore = defineStore('run', () => {
-  // Written synchronously on every change. Not listening to storage events: @vueuse pauses its
-  // writer until the next tick after each such event, which would drop a second write in the
-  // same tick (and two tabs running one session should not overwrite each other anyway).
-  const persist = { flush: 'sync' as const, listenToStorageChanges: false }
-  const asObject = { ...persist, serializer: StorageSerializers.object }
-  const session = useLocalStorage<RunSession | null>(RUN_STORAGE_KEYS.session, null, asObject)
-  const jumpSetId = useLocalStorage<string | null>(RUN_STORAGE_KEYS.jumpSetId, null, persist)
-  const rest = useLocalStorage<RestClockState | null>(RUN_STORAGE_KEYS.rest, null, asObject)
-  const queue = useLocalStorage<QueuedSetLog[]>(RUN_STORAGE_KEYS.queue, [], persist)
+  const session = ref<RunSession | null>(null)
+  const jumpSetId = ref<string | null>(null)
+  const rest = ref<RestClockState | null>(null)
+  /** The outbox in sending order (the same entries as on the device, plus any not yet written). */
+  const queue = ref<QueuedSetLog[]>([])
   /** The last refusal or failure from the server while sending, for a notice. */
   const sendError = ref<string | null>(null)
+  /** Set when this phone cannot keep the session on the device (no IndexedDB): a quiet notice. */
+  const storageWarning = ref<string | null>(null)
 
   const sets = computed(() => [...(session.value?.sets ?? [])].sort((a, b) => a.position - b.position))
   const exercises = computed(() => session.value?.exercises ?? [])
@@ -123,6 +126,177 @@ export const useRunStore = defineStore('run', () => {
   }
 
   // ---------------------------------------------------------------------------------------------
+  // The copy on the device
+
+  /** The device database; null before it opened, and for good when it cannot be used. */
+  let device: DeviceStore | null = null
+  let memoryOnly = false
+  /** The sequence number of each set's entry as committed on the device. */
+  const committed = new Map<string, number>()
+  /** What changed since the last write: outbox entries by set, and the snapshot. */
+  const dirtySets = new Set<string>()
+  let snapshotDirty = false
+  let changedAt: number | null = null
+  let writeQueued = false
+  let nextSeq = 1
+  /** Set while loading assigns what the device held, so that is not written straight back. */
+  let applyingLoaded = false
+
+  /** A copy without Vue's proxies (IndexedDB stores structured clones, and proxies are not cloneable). */
+  const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value)) as T
+
+  function useMemoryOnly(reason: unknown) {
+    memoryOnly = true
+    device?.close()
+    device = null
+    storageWarning.value = 'This phone is not keeping sets on the device (private browsing?). Keep this page open until they are sent.'
+    if (import.meta.env.DEV) console.warn('Runner storage falls back to memory:', reason)
+  }
+
+  /** Whether an entry may be sent: it is on the device (or the device cannot keep anything). */
+  const isDurable = (item: QueuedSetLog) => memoryOnly || committed.get(item.setId) === item.seq
+
+  function snapshotRecord(): RunnerSnapshot | null {
+    if (!session.value) return null
+    return plain({ id: session.value.id, session: session.value, jumpSetId: jumpSetId.value, rest: rest.value, savedAt: new Date().toISOString() })
+  }
+
+  /** Writes everything changed since the last write in one transaction. Never rejects. */
+  async function writeChanges() {
+    writeQueued = false
+    const entries = [...dirtySets].map((setId) => ({ setId, entry: queue.value.find((i) => i.setId === setId) }))
+    dirtySets.clear()
+    const withSnapshot = snapshotDirty
+    snapshotDirty = false
+    const since = changedAt
+    changedAt = null
+    if (device) {
+      try {
+        await device.write({
+          put: entries.flatMap((e) => (e.entry ? [plain(e.entry)] : [])),
+          remove: entries.filter((e) => !e.entry).map((e) => e.setId),
+          snapshot: withSnapshot ? snapshotRecord() : undefined,
+        })
+        if (since !== null && entries.length > 0) measureOutboxCommit(since)
+      } catch (error) {
+        useMemoryOnly(error) // e.g. quota exceeded: keep logging, keep sending, say so
+      }
+    }
+    for (const { setId, entry } of entries) {
+      if (entry) committed.set(setId, entry.seq)
+      else committed.delete(setId)
+    }
+  }
+
+  let writes: Promise<void> = Promise.resolve()
+
+  /** Queues one write for all changes of this moment (it runs after the current task's changes). */
+  function scheduleWrite() {
+    changedAt ??= typeof performance === 'undefined' ? null : performance.now()
+    if (writeQueued) return
+    writeQueued = true
+    writes = writes.then(writeChanges)
+  }
+  function markSet(setId: string) {
+    dirtySets.add(setId)
+    scheduleWrite()
+  }
+  watch(
+    [session, jumpSetId, rest],
+    () => {
+      if (applyingLoaded) return
+      snapshotDirty = true
+      scheduleWrite()
+    },
+    { flush: 'sync' },
+  )
+
+  /** Lays unsent outbox entries of the session over a copy of its sets. */
+  function withUnsent(copy: RunSession): RunSession {
+    const merged = [...copy.sets]
+    for (const item of queue.value.filter((i) => i.sessionId === copy.id)) {
+      const index = merged.findIndex((s) => s.id === item.setId)
+      const local: RunSet = { ...item.body, id: item.setId, targetReps: item.body.targetReps ?? null }
+      if (index >= 0) merged[index] = local
+      else merged.push(local)
+    }
+    return { ...copy, sets: merged }
+  }
+
+  /** Takes what the device held; anything this page changed before loading finished is newer. */
+  function applyLoaded({ snapshot, outbox }: DeviceContents, onDevice: boolean) {
+    const madeHere = new Set(queue.value.map((i) => i.setId))
+    const earlier = outbox.filter((e) => !madeHere.has(e.setId))
+    if (onDevice) for (const e of earlier) committed.set(e.setId, e.seq)
+    let seq = outbox.reduce((max, e) => Math.max(max, e.seq), 0)
+    // Entries made here are not written yet (writes wait for loading): number them after the device's.
+    const later = queue.value.map((e) => ({ ...e, seq: (seq += 1) }))
+    nextSeq = seq + 1
+    queue.value = [...earlier, ...later]
+    if (!session.value && snapshot) {
+      applyingLoaded = true
+      session.value = withUnsent(snapshot.session)
+      jumpSetId.value = snapshot.jumpSetId
+      rest.value = snapshot.rest
+      applyingLoaded = false
+    } else if (session.value && earlier.length > 0) {
+      session.value = withUnsent(session.value)
+    }
+  }
+
+  /** With no device database, the old localStorage copy is used in memory, its keys kept until those sets are sent. */
+  function keepLegacyInMemory(legacy: LegacyRunData) {
+    const { put = [], snapshot } = changesFromLegacy(legacy, { snapshot: null, outbox: [] }, new Date().toISOString())
+    applyLoaded({ snapshot: snapshot ?? null, outbox: put }, false)
+    const stopWatching = watch(
+      pendingCount,
+      (n) => {
+        if (n > 0) return
+        removeLegacyRunData()
+        stopWatching()
+      },
+      { immediate: true },
+    )
+  }
+
+  /** Opens the device database, moves the old localStorage copy into it once, and loads. */
+  async function load(): Promise<void> {
+    let legacy = readLegacyRunData()
+    try {
+      device = await openDeviceStore()
+      let contents = await device.load()
+      if (legacy) {
+        await device.write(changesFromLegacy(legacy, contents, new Date().toISOString()))
+        removeLegacyRunData() // only once the move has committed
+        legacy = null
+        contents = await device.load()
+      }
+      applyLoaded(contents, true)
+    } catch (error) {
+      useMemoryOnly(error)
+      if (legacy) keepLegacyInMemory(legacy)
+    }
+  }
+
+  const loading = load().catch(useMemoryOnly)
+  writes = loading
+  void loading.then(() => (queue.value.length > 0 ? flush() : undefined))
+
+  /** Resolves once the copy on the device has been loaded (at once on later calls). */
+  function whenReady(): Promise<void> {
+    return loading
+  }
+
+  /** Resolves once every change made so far is on the device (or the device cannot keep it). */
+  async function whenSaved(): Promise<void> {
+    let current: Promise<void>
+    do {
+      current = writes
+      await current
+    } while (current !== writes)
+  }
+
+  // ---------------------------------------------------------------------------------------------
   // Loading
 
   /** Takes the server's copy, with this device's unsent edits laid over it. */
@@ -131,29 +305,25 @@ export const useRunStore = defineStore('run', () => {
       jumpSetId.value = null
       rest.value = null
     }
-    const merged = [...server.sets]
-    for (const item of queue.value.filter((i) => i.sessionId === server.id)) {
-      const index = merged.findIndex((s) => s.id === item.setId)
-      const local: RunSet = { ...item.body, id: item.setId, targetReps: item.body.targetReps ?? null }
-      if (index >= 0) merged[index] = local
-      else merged.push(local)
-    }
-    session.value = { ...server, sets: merged }
-    if (jumpSetId.value && !merged.some((s) => s.id === jumpSetId.value)) jumpSetId.value = null
+    session.value = withUnsent(server)
+    if (jumpSetId.value && !session.value.sets.some((s) => s.id === jumpSetId.value)) jumpSetId.value = null
   }
 
   async function start(input: Partial<StartSessionInput> = {}) {
+    await loading
     adopt(await runApi.startSession(input, localDay()))
     return session.value!
   }
 
   async function resume(id: number) {
+    await loading
     adopt(await runApi.getRunSession(id))
     return session.value!
   }
 
   /** The server's session in progress (null: none), for a device that has no local copy. */
   async function loadCurrent() {
+    await loading
     const current = await runApi.getCurrentSession()
     if (current) adopt(current)
     else forget()
@@ -173,10 +343,22 @@ export const useRunStore = defineStore('run', () => {
   let sending: Promise<void> | null = null
   let retryTimer: ReturnType<typeof setTimeout> | null = null
 
+  /** Puts the set's body in the outbox, replacing an earlier unsent edit of the same set. */
   function enqueue(set: RunSet) {
     if (!session.value) return
-    queue.value = [...queue.value, { sessionId: session.value.id, setId: set.id, body: toLogBody(set), attempts: 0 }]
+    const entry: QueuedSetLog = { seq: nextSeq++, sessionId: session.value.id, setId: set.id, body: toLogBody(set), attempts: 0 }
+    queue.value = [...queue.value.filter((i) => i.setId !== set.id), entry]
+    markSet(set.id)
     void flush()
+  }
+
+  const isSameEntry = (a: QueuedSetLog, b: QueuedSetLog) => a.setId === b.setId && a.seq === b.seq
+
+  /** Takes an entry out once the server has answered for it (an edit made meanwhile stays). */
+  function settle(item: QueuedSetLog) {
+    if (!queue.value.some((i) => isSameEntry(i, item))) return
+    queue.value = queue.value.filter((i) => !isSameEntry(i, item))
+    markSet(item.setId)
   }
 
   /** Server answers: back-off targets recomputed from a top set, unless logged here since. */
@@ -194,23 +376,31 @@ export const useRunStore = defineStore('run', () => {
   }
 
   async function sendAll() {
+    await loading
     while (queue.value.length > 0) {
       const item = queue.value[0]
+      if (!isDurable(item)) {
+        // Sent only once its entry has committed on the device: wait for the write under way.
+        await whenSaved()
+        if (queue.value[0] && isSameEntry(queue.value[0], item) && !isDurable(item)) markSet(item.setId)
+        continue
+      }
       try {
         const result = await runApi.logSet(item.sessionId, item.setId, item.body)
-        queue.value = queue.value.slice(1)
+        settle(item)
         sendError.value = null
         if (session.value?.id === item.sessionId) applyUpdates(result.updated)
       } catch (error) {
         if (isRetryable(error)) {
+          // Counted in memory only (a reload starts the waits afresh), so no disk write per failed try.
           const attempts = item.attempts + 1
-          queue.value = [{ ...item, attempts }, ...queue.value.slice(1)]
+          queue.value = queue.value.map((i) => (isSameEntry(i, item) ? { ...i, attempts } : i))
           sendError.value = error instanceof Error ? error.message : 'Could not send'
           scheduleRetry(attempts)
           return
         }
         // Refused for good (e.g. the session was finished elsewhere): drop it and say so.
-        queue.value = queue.value.slice(1)
+        settle(item)
         sendError.value = `A set was not saved: ${error instanceof Error ? error.message : 'refused'}`
       }
     }
@@ -240,6 +430,9 @@ export const useRunStore = defineStore('run', () => {
   }
 
   if (typeof window !== 'undefined') useEventListener(window, 'online', () => void flush())
+  onScopeDispose(() => {
+    if (retryTimer) clearTimeout(retryTimer)
+  })
 
   // ---------------------------------------------------------------------------------------------
   // Logging (instant; the PUT follows)
@@ -391,6 +584,7 @@ export const useRunStore = defineStore('run', () => {
     rest,
     queue,
     sendError,
+    storageWarning,
     sets,
     exercises,
     pendingCount,
@@ -406,6 +600,8 @@ export const useRunStore = defineStore('run', () => {
     resume,
     loadCurrent,
     forget,
+    whenReady,
+    whenSaved,
     flush,
     logSet,
     undoLast,

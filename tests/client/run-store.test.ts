@@ -1,10 +1,13 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
+import { openDB } from 'idb'
 import { logSetSchema } from '@shared/schemas/run.schema'
 import { backoffTarget } from '@shared/domain/schemes'
 import { KG_COMPETITION_SET } from '@shared/domain/equipment'
 import { setAuthToken } from '@/api/client'
-import { useRunStore } from '@/stores/run'
+import { toLogBody, useRunStore } from '@/stores/run'
+import { DEVICE_DB_NAME, type OutboxEntry, type RunnerSnapshot } from '@/offline/device-store'
+import { LEGACY_RUN_KEYS } from '@/offline/legacy-run-storage'
 import { buildRunSession } from './helpers/run-fixtures'
 import { stubFetch } from './helpers/fetch-stub'
 
@@ -12,13 +15,18 @@ const NOW = new Date('2026-12-01T18:00:00.000Z')
 
 beforeEach(() => {
   localStorage.clear()
-  vi.useFakeTimers()
+  // IndexedDB (fake-indexeddb, fresh per test) runs on real setImmediate tasks: only the clock and timers are fake.
+  vi.useFakeTimers({ toFake: ['Date', 'setTimeout', 'clearTimeout'] })
   vi.setSystemTime(NOW)
   setActivePinia(createPinia())
   setAuthToken('tok')
 })
 
-afterEach(() => {
+afterEach(async () => {
+  // Let this test's store settle against this test's fetch, so nothing it sends leaks into the next test.
+  const run = useRunStore()
+  await run.flush()
+  await run.whenSaved()
   vi.useRealTimers()
   vi.unstubAllGlobals()
   setAuthToken(null)
@@ -31,6 +39,49 @@ function storeWithSession() {
 }
 
 const okReply = (body: unknown = { set: null, updated: [] }) => ({ status: 200, body })
+const okResponse = () => new Response(JSON.stringify({ set: null, updated: [] }), { status: 200 })
+const noSignal = () => vi.fn().mockRejectedValue(new TypeError('Failed to fetch'))
+
+/** What the device database holds, read through a connection of its own. */
+async function onDevice(): Promise<{ outbox: OutboxEntry[]; sessions: RunnerSnapshot[] }> {
+  const db = await openDB(DEVICE_DB_NAME)
+  try {
+    if (!db.objectStoreNames.contains('outbox')) return { outbox: [], sessions: [] }
+    return { outbox: await db.getAllFromIndex('outbox', 'bySeq'), sessions: await db.getAll('sessions') }
+  } finally {
+    db.close()
+  }
+}
+
+/** The page reloads: a new Pinia (a new store) over the same device database and localStorage. */
+async function reload() {
+  useRunStore().$dispose() // the old page is gone, with its retry timer
+  setActivePinia(createPinia())
+  const run = useRunStore()
+  await run.whenReady()
+  return run
+}
+
+/** Lets real tasks run (IndexedDB works in them; the test's timers are fake). */
+async function realTasks(n = 20) {
+  for (let i = 0; i < n; i += 1) await new Promise((resolve) => setImmediate(resolve))
+}
+
+const logWarmups = (run: ReturnType<typeof useRunStore>) => {
+  run.logSet(run.currentSet!.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+  run.logSet(run.currentSet!.id, { loadKg: 80, reps: 3, rir: null, failure: false })
+}
+
+/** A fetch that answers only when the test says so. */
+function heldFetch() {
+  const calls: Array<{ url: string; body: Record<string, unknown>; answer: (res: Response) => void }> = []
+  const fetchMock = vi.fn(
+    (input: RequestInfo | URL, init: RequestInit = {}) =>
+      new Promise<Response>((resolve) => calls.push({ url: String(input), body: JSON.parse(String(init.body)), answer: resolve })),
+  )
+  vi.stubGlobal('fetch', fetchMock)
+  return calls
+}
 
 describe('run store', () => {
   it('starts at the first set not done and moves on after logging, without waiting for the network', () => {
@@ -144,27 +195,147 @@ describe('run store', () => {
     expect(run.pendingCount).toBe(0)
   })
 
-  it('survives a reload: a new store reads the same set, the same rest clock end and the unsent queue', async () => {
-    vi.stubGlobal('fetch', vi.fn().mockRejectedValue(new TypeError('Failed to fetch')))
+  it('survives a reload: a new store reads the same set, the same rest clock end and the unsent queue from IndexedDB', async () => {
+    vi.stubGlobal('fetch', noSignal())
     const before = storeWithSession()
     before.logSet(before.currentSet!.id, { loadKg: 25, reps: 6, rir: null, failure: false })
     before.logSet(before.currentSet!.id, { loadKg: 80, reps: 3, rir: null, failure: false })
     before.logSet(before.currentSet!.id, { loadKg: 100, reps: 8, rir: null, failure: true })
     await before.flush()
+    await before.whenSaved()
     const setId = before.currentSet!.id
     const endsAt = before.rest!.endsAt
 
-    setActivePinia(createPinia()) // the page reloads
-    const after = useRunStore()
+    const after = await reload()
 
     expect(after.session!.id).toBe(41)
     expect(after.currentSet!.id).toBe(setId)
     expect(after.currentSet!.kind).toBe('backoff')
     expect(after.rest!.endsAt).toBe(endsAt)
     expect(after.pendingCount).toBe(3)
+    expect(localStorage.length).toBe(0) // nothing of the runner in localStorage any more
   })
 
-  it('undo sends the last set back with no result and no logged time', async () => {
+  it('keeps the sending order across a reload and sends the queued sets in that order', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const before = storeWithSession()
+    const ids = before.sets.slice(0, 3).map((s) => s.id)
+    before.logSet(ids[0], { loadKg: 25, reps: 6, rir: null, failure: false })
+    before.logSet(ids[1], { loadKg: 80, reps: 3, rir: null, failure: false })
+    before.logSet(ids[2], { loadKg: 100, reps: 8, rir: null, failure: true })
+    await before.flush()
+    await before.whenSaved()
+    const stored = (await onDevice()).outbox
+    expect(stored.map((e) => e.setId)).toEqual(ids)
+    expect(stored.map((e) => e.seq)).toEqual([...stored.map((e) => e.seq)].sort((a, b) => a - b))
+
+    const { requests } = stubFetch(okReply(), okReply(), okReply())
+    const after = await reload()
+    await after.flush()
+
+    expect(requests.map((r) => r.url)).toEqual(ids.map((id) => `/api/sessions/41/sets/${id}`))
+    expect(requests[2].body).toMatchObject({ kind: 'top', loadKg: 100, reps: 8, failure: true })
+    expect(after.pendingCount).toBe(0)
+    await after.whenSaved()
+    expect((await onDevice()).outbox).toEqual([])
+  })
+
+  it('sends a set only after its outbox entry has committed in IndexedDB', async () => {
+    const calls = heldFetch()
+    const run = storeWithSession()
+    await run.whenReady()
+    await run.whenSaved()
+    // Another connection holds a write transaction on the outbox, so the store's write must wait.
+    const db = await openDB(DEVICE_DB_NAME)
+    const blocker = db.transaction('outbox', 'readwrite')
+    let holding = true
+    const held = (async () => {
+      while (holding) await blocker.store.count()
+      await blocker.done
+    })()
+
+    const set = run.currentSet!
+    run.logSet(set.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    expect(run.sets.find((s) => s.id === set.id)!.loggedAt).toBe(NOW.toISOString()) // the UI has it at once
+    void run.flush()
+    await realTasks(50)
+    expect(calls).toHaveLength(0) // not sent: not on the device yet
+
+    holding = false
+    await held
+    db.close()
+    await vi.waitFor(() => expect(calls).toHaveLength(1))
+    expect((await onDevice()).outbox.map((e) => e.setId)).toEqual([set.id])
+    calls[0].answer(okResponse())
+  })
+
+  it('removes an entry from the device only when the server has acknowledged it', async () => {
+    const calls = heldFetch()
+    const run = storeWithSession()
+    const set = run.currentSet!
+    run.logSet(set.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    const sending = run.flush()
+    await vi.waitFor(() => expect(calls).toHaveLength(1))
+    await run.whenSaved()
+    expect((await onDevice()).outbox.map((e) => e.setId)).toEqual([set.id]) // in flight, still kept
+
+    calls[0].answer(okResponse())
+    await sending
+    await run.whenSaved()
+
+    expect(run.pendingCount).toBe(0)
+    expect((await onDevice()).outbox).toEqual([])
+  })
+
+  it('a later edit of a queued set replaces its entry, and the later edit is what is sent', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const run = storeWithSession()
+    const set = run.currentSet!
+    const other = run.sets[1]
+    run.logSet(set.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    run.logSet(other.id, { loadKg: 80, reps: 3, rir: null, failure: false })
+    await run.flush()
+    vi.setSystemTime(NOW.getTime() + 60_000)
+    run.logSet(set.id, { loadKg: 25, reps: 5, rir: null, failure: false, note: 'bar slipped' })
+    await run.whenSaved()
+
+    expect(run.pendingCount).toBe(2)
+    const stored = (await onDevice()).outbox
+    expect(stored.map((e) => e.setId)).toEqual([other.id, set.id]) // in the order of the last edits
+    expect(stored[1].body).toMatchObject({ reps: 5, note: 'bar slipped', editedAt: new Date(NOW.getTime() + 60_000).toISOString() })
+
+    const { requests } = stubFetch(okReply(), okReply())
+    await run.flush()
+    expect(requests.map((r) => r.url)).toEqual([`/api/sessions/41/sets/${other.id}`, `/api/sessions/41/sets/${set.id}`])
+    expect(requests[1].body).toMatchObject({ reps: 5, editedAt: new Date(NOW.getTime() + 60_000).toISOString() })
+  })
+
+  it('an edit made while the set is on its way stays queued after the acknowledgement and is sent next', async () => {
+    const calls = heldFetch()
+    const run = storeWithSession()
+    const set = run.currentSet!
+    run.logSet(set.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    const sending = run.flush()
+    await vi.waitFor(() => expect(calls).toHaveLength(1))
+
+    vi.setSystemTime(NOW.getTime() + 30_000)
+    run.logSet(set.id, { loadKg: 25, reps: 7, rir: null, failure: false })
+    calls[0].answer(okResponse())
+    await vi.waitFor(() => expect(calls).toHaveLength(2))
+    await run.whenSaved()
+
+    expect(calls[0].body).toMatchObject({ reps: 6 })
+    expect(calls[1].body).toMatchObject({ reps: 7, editedAt: new Date(NOW.getTime() + 30_000).toISOString() })
+    expect(run.pendingCount).toBe(1)
+    expect((await onDevice()).outbox.map((e) => e.body.reps)).toEqual([7])
+    calls[1].answer(okResponse())
+    await sending
+    await run.whenSaved()
+    expect(run.pendingCount).toBe(0)
+    expect((await onDevice()).outbox).toEqual([])
+  })
+
+  it('undo sends the last set back with no result and no logged time (replacing the unsent log)', async () => {
     const { requests } = stubFetch(okReply(), okReply())
     const run = storeWithSession()
     const first = run.currentSet!
@@ -175,11 +346,29 @@ describe('run store', () => {
     await run.flush()
 
     expect(run.currentSet!.id).toBe(first.id)
-    expect(requests[1]).toMatchObject({
+    // The log had not left the phone yet: the undo replaced it in the outbox, so only the undo is sent.
+    expect(requests).toHaveLength(1)
+    expect(requests[0]).toMatchObject({
       method: 'PUT',
       url: `/api/sessions/41/sets/${first.id}`,
       body: { loadKg: null, reps: null, rir: null, failure: false, skipped: false, loggedAt: null, editedAt: new Date(NOW.getTime() + 5_000).toISOString() },
     })
+  })
+
+  it('undo after the log was sent sends the undo as a second PUT of the same set', async () => {
+    const { requests } = stubFetch(okReply(), okReply())
+    const run = storeWithSession()
+    const first = run.currentSet!
+    run.logSet(first.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    await run.flush()
+    vi.setSystemTime(NOW.getTime() + 5_000)
+
+    run.undoLast()
+    await run.flush()
+
+    expect(requests.map((r) => r.url)).toEqual([`/api/sessions/41/sets/${first.id}`, `/api/sessions/41/sets/${first.id}`])
+    expect(requests[0].body).toMatchObject({ reps: 6, loggedAt: NOW.toISOString() })
+    expect(requests[1].body).toMatchObject({ reps: null, loggedAt: null, editedAt: new Date(NOW.getTime() + 5_000).toISOString() })
   })
 
   it('skips a set with a logged time, and adds a set after the exercise with a new UUID in its block', async () => {
@@ -206,5 +395,148 @@ describe('run store', () => {
 
     await expect(run.finish(null)).rejects.toMatchObject({ code: 'pending_sets' })
     expect(run.session).not.toBeNull()
+  })
+})
+
+describe('run store: moving the old localStorage copy into IndexedDB', () => {
+  /** What the previous version left in localStorage in the middle of a session. */
+  function seedOldCopy(session = buildRunSession()) {
+    const [w1, w2, top] = session.sets
+    const at = (s: number) => new Date(NOW.getTime() - 600_000 + s * 1000).toISOString()
+    const body = (set: typeof w1, reps: number, editedAt: string) =>
+      toLogBody({ ...set, loadKg: set.targetLoadKg, reps, loggedAt: editedAt, editedAt })
+    // The old queue appended every edit: w1 was logged, then w2, then w1 corrected.
+    const queue = [
+      { sessionId: 41, setId: w1.id, body: body(w1, 6, at(1)), attempts: 3 },
+      { sessionId: 41, setId: w2.id, body: body(w2, 3, at(2)), attempts: 0 },
+      { sessionId: 41, setId: w1.id, body: body(w1, 5, at(3)), attempts: 0 },
+    ]
+    session.sets = session.sets.map((s) => (s.id === w1.id ? { ...s, ...queue[2].body } : s.id === w2.id ? { ...s, ...queue[1].body } : s))
+    localStorage.setItem(LEGACY_RUN_KEYS.session, JSON.stringify(session))
+    localStorage.setItem(LEGACY_RUN_KEYS.jumpSetId, top.id)
+    localStorage.setItem(LEGACY_RUN_KEYS.rest, JSON.stringify({ endsAt: NOW.getTime() + 90_000, durationSec: 180 }))
+    localStorage.setItem(LEGACY_RUN_KEYS.queue, JSON.stringify(queue))
+    localStorage.setItem('chalkline.token', 'tok') // not the runner's: stays
+    return { w1, w2, top }
+  }
+
+  it('moves the queued sets and the snapshot into IndexedDB once, deletes the old keys, and sends the latest edits in order', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const { w1, w2, top } = seedOldCopy()
+
+    const run = useRunStore()
+    await run.whenReady()
+
+    expect(Object.values(LEGACY_RUN_KEYS).map((k) => localStorage.getItem(k))).toEqual([null, null, null, null])
+    expect(localStorage.getItem('chalkline.token')).toBe('tok')
+    expect(run.session!.id).toBe(41)
+    expect(run.currentSet!.id).toBe(top.id)
+    expect(run.rest).toEqual({ endsAt: NOW.getTime() + 90_000, durationSec: 180 })
+    expect(run.pendingCount).toBe(2)
+    const stored = await onDevice()
+    expect(stored.outbox.map((e) => [e.setId, e.body.reps])).toEqual([[w2.id, 3], [w1.id, 5]])
+    expect(stored.sessions.map((s) => s.id)).toEqual([41])
+
+    // A second load finds nothing left to move and the same queue.
+    const again = await reload()
+    expect(again.pendingCount).toBe(2)
+
+    const { requests } = stubFetch(okReply(), okReply())
+    await vi.advanceTimersByTimeAsync(1_000) // the retry after the failed first attempt
+    await again.flush()
+    expect(requests.map((r) => [r.url, (r.body as { reps: number }).reps])).toEqual([
+      [`/api/sessions/41/sets/${w2.id}`, 3],
+      [`/api/sessions/41/sets/${w1.id}`, 5],
+    ])
+  })
+
+  it('keeps a later edit already in IndexedDB over an older one found in localStorage', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const session = buildRunSession()
+    const run = useRunStore()
+    run.adopt(session)
+    const w1 = run.currentSet!
+    run.logSet(w1.id, { loadKg: 25, reps: 4, rir: null, failure: false }) // edited at NOW
+    await run.flush()
+    await run.whenSaved()
+    seedOldCopy(session) // older edits of w1 (and w2) of the same session
+
+    const after = await reload()
+
+    expect(after.pendingCount).toBe(2)
+    const stored = (await onDevice()).outbox
+    expect(stored.map((e) => [e.setId, e.body.reps])).toEqual([[w1.id, 4], [after.sets[1].id, 3]])
+  })
+})
+
+describe('run store with no IndexedDB (some private modes)', () => {
+  it.each([
+    ['missing', () => vi.stubGlobal('indexedDB', undefined)],
+    [
+      'refusing to open',
+      () =>
+        vi.stubGlobal('indexedDB', {
+          open() {
+            throw new DOMException('A mutation operation was attempted on a database that did not allow mutations.', 'InvalidStateError')
+          },
+        }),
+    ],
+  ])('IndexedDB %s: keeps everything in memory, says so quietly, and still logs and sends', async (_, breakIndexedDb) => {
+    breakIndexedDb()
+    const { requests } = stubFetch(okReply(), okReply())
+    const run = useRunStore()
+    await run.whenReady()
+    run.adopt(buildRunSession())
+
+    expect(run.storageWarning).toMatch(/not keeping sets on the device/)
+    logWarmups(run)
+    expect(run.pendingCount).toBe(2)
+    await run.flush()
+
+    expect(requests).toHaveLength(2)
+    expect(run.pendingCount).toBe(0)
+    expect(localStorage.length).toBe(0)
+  })
+
+  it('takes the old localStorage queue into memory and keeps the old keys until those sets are sent', async () => {
+    vi.stubGlobal('indexedDB', undefined)
+    const session = buildRunSession()
+    const w1 = session.sets[0]
+    const body = toLogBody({ ...w1, loadKg: 25, reps: 6, loggedAt: NOW.toISOString(), editedAt: NOW.toISOString() })
+    localStorage.setItem(LEGACY_RUN_KEYS.session, JSON.stringify(session))
+    localStorage.setItem(LEGACY_RUN_KEYS.queue, JSON.stringify([{ sessionId: 41, setId: w1.id, body, attempts: 0 }]))
+    vi.stubGlobal('fetch', noSignal())
+
+    const run = useRunStore()
+    await run.whenReady()
+    await run.flush()
+
+    expect(run.pendingCount).toBe(1)
+    expect(run.sets[0].reps).toBe(6)
+    expect(localStorage.getItem(LEGACY_RUN_KEYS.queue)).not.toBeNull() // a reload must not lose it
+
+    const { requests } = stubFetch(okReply())
+    await vi.advanceTimersByTimeAsync(1_000)
+    expect(requests.map((r) => r.url)).toEqual([`/api/sessions/41/sets/${w1.id}`])
+    expect(run.pendingCount).toBe(0)
+    expect(localStorage.getItem(LEGACY_RUN_KEYS.queue)).toBeNull()
+  })
+
+  it('falls back to memory when a write fails (e.g. the disk is full) and keeps sending', async () => {
+    const run = storeWithSession()
+    await run.whenReady()
+    await run.whenSaved()
+    const { requests } = stubFetch(okReply())
+    const put = vi.spyOn(IDBObjectStore.prototype, 'put').mockImplementation(() => {
+      throw new DOMException('The quota has been exceeded.', 'QuotaExceededError')
+    })
+
+    run.logSet(run.currentSet!.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    await run.flush()
+    put.mockRestore()
+
+    expect(run.storageWarning).toMatch(/not keeping sets on the device/)
+    expect(requests).toHaveLength(1)
+    expect(run.pendingCount).toBe(0)
   })
 })

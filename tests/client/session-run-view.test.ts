@@ -28,7 +28,11 @@ beforeEach(async () => {
   await router.push('/train/session')
 })
 
-afterEach(() => {
+afterEach(async () => {
+  // Let the runner's sends settle against this test's fetch, so none leaks into the next test.
+  const run = useRunStore(pinia)
+  await run.flush()
+  await run.whenSaved()
   vi.useRealTimers()
   setAuthToken(null)
   vi.unstubAllGlobals()
@@ -37,6 +41,7 @@ afterEach(() => {
 
 async function mountRunner() {
   const wrapper = mount(SessionRunView, { global: { plugins: [pinia, router] }, attachTo: document.body })
+  await useRunStore(pinia).whenReady() // the copy on the phone (IndexedDB) loads first
   await flushPromises()
   return wrapper
 }
@@ -54,6 +59,18 @@ describe('SessionRunView', () => {
     view.unmount()
   })
 
+  it('says in one quiet line when this phone cannot keep sets (no IndexedDB), and still runs the session', async () => {
+    vi.stubGlobal('indexedDB', undefined)
+    stubFetch({ status: 200, body: { session: buildRunSession() } })
+
+    const view = await mountRunner()
+
+    expect(byId(view, 'storage-warning').text()).toMatch(/not keeping sets on the device/)
+    expect(byId(view, 'storage-warning').attributes('role')).toBe('status')
+    expect(byId(view, 'set-label').text()).toBe('Warm-up 1 of 2')
+    view.unmount()
+  })
+
   it('logs the top set As planned with one tap and starts the rest clock', async () => {
     const session = buildRunSession()
     session.sets[0] = { ...session.sets[0], loadKg: 25, reps: 6, loggedAt: '2026-12-01T17:50:00.000Z', editedAt: '2026-12-01T17:50:00.000Z' }
@@ -63,6 +80,7 @@ describe('SessionRunView', () => {
     expect(byId(view, 'set-label').text()).toBe('Top set')
 
     await byId(view, 'as-planned').trigger('click')
+    await useRunStore().flush() // sent once the set is in the phone's outbox (IndexedDB)
     await flushPromises()
 
     expect(requests[1]).toMatchObject({
@@ -86,6 +104,7 @@ describe('SessionRunView', () => {
     await byId(view, 'reps-minus').trigger('click')
     await byId(view, 'reps-minus').trigger('click')
     await byId(view, 'log-set').trigger('click')
+    await useRunStore().flush()
     await flushPromises()
 
     expect(requests[1]).toMatchObject({ method: 'PUT', url: `/api/sessions/41/sets/${session.sets[4].id}`, body: { loadKg: 20, reps: 8 } })

@@ -61,6 +61,9 @@ async function mountTrain() {
   return wrapper
 }
 
+/** The runner's route is lazy (its view loads on the first visit) and the store first reads the phone's copy. */
+const openedRunner = () => vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'), { timeout: 5_000 })
+
 describe('TrainView', () => {
   it("shows today's plan, day with its version, exercises and the last session", async () => {
     const { requests } = stubFetch({ status: 200, body: pushDay })
@@ -111,7 +114,7 @@ describe('TrainView', () => {
     const start = wrapper.findAll('button').find((button) => button.text() === 'Start session')
     await start!.trigger('click')
 
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    await openedRunner()
     expect(requests[1]).toMatchObject({ method: 'POST', body: {} })
     expect(requests[1].url).toMatch(/^\/api\/sessions\?date=\d{4}-\d{2}-\d{2}&tzOffset=-?\d+$/)
   })
@@ -122,7 +125,7 @@ describe('TrainView', () => {
 
     await wrapper.get('[data-testid="start-session"]').trigger('click')
 
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    await openedRunner()
     expect(wrapper.text()).toContain('Resume session')
     expect(requests[1]).toMatchObject({ method: 'GET', url: '/api/sessions/41/run' })
   })
@@ -133,7 +136,7 @@ describe('TrainView', () => {
 
     await wrapper.get('[data-testid="empty-session"]').trigger('click')
 
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    await openedRunner()
     expect(requests[1]).toMatchObject({ method: 'POST', body: { empty: true } })
   })
 
@@ -150,7 +153,7 @@ describe('TrainView', () => {
     expect(wrapper.text()).not.toContain('Start session')
     await wrapper.get('[data-testid="train-anyway"]').trigger('click')
 
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('session-run'))
+    await openedRunner()
     expect(wrapper.text()).toContain('Train anyway: Pull · version II')
     expect(requests[1]).toMatchObject({ method: 'POST', body: { dayId: 4, version: 'II' } })
   })

@@ -35,6 +35,44 @@ async function api<T>(path: string): Promise<T> {
   return (await res.json()) as T
 }
 
+interface StoredEntry {
+  seq: number
+  sessionId: number
+  setId: string
+  body: { loggedAt: string | null; editedAt: string }
+}
+
+/** The phone's outbox, read straight from the page's IndexedDB (database `chalkline`, store `outbox`). */
+function readOutbox(): Promise<StoredEntry[]> {
+  return page.evaluate(
+    () =>
+      new Promise<StoredEntry[]>((resolve, reject) => {
+        const open = indexedDB.open('chalkline')
+        open.onerror = () => reject(open.error)
+        open.onsuccess = () => {
+          const db = open.result
+          if (!db.objectStoreNames.contains('outbox')) {
+            db.close()
+            return resolve([])
+          }
+          const read = db.transaction('outbox').objectStore('outbox').index('bySeq').getAll()
+          read.onerror = () => reject(read.error)
+          read.onsuccess = () => {
+            db.close()
+            resolve(read.result as StoredEntry[])
+          }
+        }
+      }),
+  )
+}
+
+/** "n sets kept on this phone": the number on the quiet indicator (0 when it is not shown). */
+async function pendingShown() {
+  const indicator = page.getByTestId('pending-sets')
+  if ((await indicator.count()) === 0) return 0
+  return Number((await indicator.innerText()).match(/^(\d+) sets?/)?.[1] ?? NaN)
+}
+
 /** Skips a running rest clock if one shows; returns whether a set card is there to log. */
 async function readyToLog() {
   const skip = page.getByTestId('rest-skip')
@@ -88,14 +126,28 @@ describe('training with no signal', () => {
       }
       if (reloadAt.has(logged)) {
         expect(offline, 'reloads happen with no signal').toBe(true)
+        // The sets logged with no signal wait in IndexedDB, in the order they were logged.
+        const waiting = await pendingShown()
+        expect(waiting, 'at least the sets logged since the cut are waiting').toBeGreaterThanOrEqual(2)
+        await expect.poll(async () => (await readOutbox()).length).toBe(waiting)
+        const stored = await readOutbox()
+        expect(stored.map((e) => e.sessionId)).toEqual(stored.map(() => sessionIds.at(-1)))
+        const loggedTimes = stored.map((e) => e.body.loggedAt)
+        expect(loggedTimes.every((t) => t !== null)).toBe(true)
+        expect(loggedTimes).toEqual([...loggedTimes].sort())
         await page.reload()
         await page.getByTestId('set-card').or(page.getByTestId('finish-session')).first().waitFor()
+        // After the reload the page shows the same waiting sets, read back from IndexedDB.
+        expect(await pendingShown()).toBe(waiting)
+        expect((await readOutbox()).map((e) => e.setId)).toEqual(stored.map((e) => e.setId))
         await page.screenshot({ path: join(artifacts, `offline-reload-${logged}.png`) })
       }
     }
     await context.setOffline(false)
     // The quiet indicator goes away once the phone has sent everything.
     await expect.poll(() => page.getByTestId('pending-sets').count(), { timeout: 30_000 }).toBe(0)
+    // Acknowledged sets leave the phone's outbox.
+    await expect.poll(async () => (await readOutbox()).length).toBe(0)
 
     let stored = 0
     for (const id of sessionIds) {

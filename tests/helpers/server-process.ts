@@ -24,9 +24,12 @@ export async function startBuiltServer(env: Record<string, string> = {}, options
   // Reusing a folder restarts the server over the same database (as after a crash).
   const dir = options.dir ?? mkdtempSync(join(tmpdir(), 'chalkline-e2e-'))
   const port = await freePort()
-  const child: ChildProcess = spawn(process.execPath, ['dist/server/index.js'], {
+  // CHALKLINE_DIST: a build kept apart from dist/ (e.g. /tmp/x with x/server and x/client).
+  const dist = process.env.CHALKLINE_DIST
+  const child: ChildProcess = spawn(process.execPath, [`${dist ?? 'dist'}/server/index.js`], {
     env: {
       ...process.env,
+      ...(dist ? { CLIENT_DIST: `${dist}/client` } : {}),
       NODE_ENV: 'production',
       HOST: '127.0.0.1',
       PORT: String(port),
