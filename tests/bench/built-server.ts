@@ -1,0 +1,170 @@
+/**
+ * Support for the browser benchmarks (Lighthouse, interaction): the production server of a
+ * given build, the few API calls that put a demo lifter into a started session, and running a
+ * part alone.
+ *
+ * Started like tests/helpers/server-process.ts starts it, but from any build folder: the bench
+ * runner passes its fresh build, and a part run alone uses dist/ or $CHALKLINE_DIST.
+ */
+import { spawn } from 'node:child_process'
+import { existsSync, mkdirSync, mkdtempSync } from 'node:fs'
+import { cpus, tmpdir } from 'node:os'
+import { dirname, join, resolve } from 'node:path'
+import { fileURLToPath, pathToFileURL } from 'node:url'
+import type { User } from '../../shared/schemas/auth.schema'
+import type { RunSession } from '../../shared/schemas/run.schema'
+import type { Today } from '../../shared/schemas/train.schema'
+import { freePort } from '../helpers/server-process'
+import type { BenchContext, BenchPart } from './bench-types'
+
+export interface BuiltServer {
+  baseUrl: string
+  stop: () => Promise<void>
+}
+
+/** The build a part uses when run alone: $CHALKLINE_DIST, else dist/ under the repository. */
+export function standaloneDistDir(root: string): string {
+  return resolve(root, process.env.CHALKLINE_DIST ?? 'dist')
+}
+
+/**
+ * `node <distDir>/server/index.js` on a free loopback port, production mode, over a fresh
+ * SQLite file in `dataDir` (the server loads the invented demo club on first start).
+ * The server bundle keeps its packages external, so its folder must resolve node_modules
+ * (true for dist/ in the repository; a build elsewhere needs a node_modules link beside it).
+ */
+export async function startBuiltServer(opts: { root: string; distDir: string; dataDir: string }): Promise<BuiltServer> {
+  const entry = join(opts.distDir, 'server', 'index.js')
+  if (!existsSync(entry)) throw new Error(`no production build at ${opts.distDir} (run npm run build, or set CHALKLINE_DIST)`)
+  mkdirSync(opts.dataDir, { recursive: true })
+  const port = await freePort()
+  const child = spawn(process.execPath, [entry], {
+    cwd: opts.root,
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      CLIENT_DIST: join(opts.distDir, 'client'),
+      DATABASE_PATH: join(opts.dataDir, 'bench.sqlite'),
+      BCRYPT_COST: '10',
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  // Keep only the tail of the request log (reading it keeps the pipe from filling up).
+  let output = ''
+  const keep = (d: Buffer) => {
+    output = (output + d.toString()).slice(-8000)
+  }
+  child.stdout.on('data', keep)
+  child.stderr.on('data', keep)
+  const baseUrl = `http://127.0.0.1:${port}`
+  const deadline = Date.now() + 60_000
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`)
+    try {
+      if ((await fetch(`${baseUrl}/api/health`)).ok) break
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) {
+      child.kill('SIGKILL')
+      throw new Error(`server did not start within 60 s:\n${output}`)
+    }
+    await new Promise((r) => setTimeout(r, 200))
+  }
+  async function stop() {
+    if (child.exitCode !== null || child.signalCode !== null) return
+    const exited = new Promise((r) => child.once('exit', r))
+    child.kill('SIGTERM')
+    await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))])
+    if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL')
+  }
+  return { baseUrl, stop }
+}
+
+/** A JSON call to the API with an optional bearer token; throws on any non-2xx answer. */
+export async function api<T>(baseUrl: string, method: string, path: string, opts: { token?: string; body?: unknown; query?: Record<string, string | number> } = {}): Promise<T> {
+  const url = new URL(baseUrl + '/api' + path)
+  for (const [k, v] of Object.entries(opts.query ?? {})) url.searchParams.set(k, String(v))
+  const res = await fetch(url, {
+    method,
+    headers: {
+      ...(opts.token ? { Authorization: `Bearer ${opts.token}` } : {}),
+      ...(opts.body !== undefined ? { 'Content-Type': 'application/json' } : {}),
+    },
+    body: opts.body !== undefined ? JSON.stringify(opts.body) : undefined,
+  })
+  if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${await res.text()}`)
+  return (await res.json()) as T
+}
+
+/** The lifter's calendar day as the client sends it (src/utils/dates.ts localDay). */
+export function localDayQuery(now = new Date()) {
+  const pad = (n: number) => String(n).padStart(2, '0')
+  return { date: `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`, tzOffset: now.getTimezoneOffset() }
+}
+
+/** Signs a demo lifter in through the API and confirms the first-sign-in cautions, so the dialog does not cover the page. */
+export async function signInDemoLifter(baseUrl: string, email: string, password: string) {
+  const { token } = await api<{ token: string; user: User }>(baseUrl, 'POST', '/auth/sign-in', { body: { email, password } })
+  const { user } = await api<{ user: User }>(baseUrl, 'POST', '/me/cautions', { token })
+  if (user.cautionsAcknowledgedAt === null) throw new Error('cautions were not acknowledged')
+  return { token, user }
+}
+
+/**
+ * Starts today's session through the API, or the next training day's on a rest day, or takes
+ * the one already in progress.
+ */
+export async function startOrResumeSession(baseUrl: string, token: string): Promise<RunSession> {
+  const day = localDayQuery()
+  const today = await api<Today>(baseUrl, 'GET', '/train/today', { token, query: day })
+  if (today.inProgressSessionId !== null) {
+    return (await api<{ session: RunSession }>(baseUrl, 'GET', `/sessions/${today.inProgressSessionId}/run`, { token })).session
+  }
+  const body = today.day && !today.day.isRest ? {} : today.nextTraining ? { dayId: today.nextTraining.dayId, version: today.nextTraining.version } : null
+  if (body === null) throw new Error('the demo lifter has no training day to start')
+  return (await api<{ session: RunSession }>(baseUrl, 'POST', '/sessions', { token, body, query: day })).session
+}
+
+/** A demo lifter signed in (cautions confirmed) with a started session. */
+export async function demoLifterWithStartedSession(baseUrl: string, email: string, password: string) {
+  const { token, user } = await signInDemoLifter(baseUrl, email, password)
+  const session = await startOrResumeSession(baseUrl, token)
+  return { token, user, session }
+}
+
+/** True when the module at `url` was started directly (`tsx tests/bench/<part>.ts`), not imported. */
+export function isMainModule(url: string): boolean {
+  return Boolean(process.argv[1]) && url === pathToFileURL(resolve(process.argv[1]!)).href
+}
+
+/** Run alone: print the section's markdown and budgets. */
+export async function runAlone(part: (ctx: BenchContext) => Promise<BenchPart>, url: string) {
+  const root = resolve(dirname(fileURLToPath(url)), '../..')
+  const workDir = mkdtempSync(join(tmpdir(), 'chalkline-bench-'))
+  const ctx: BenchContext = {
+    root,
+    distDir: standaloneDistDir(root),
+    workDir,
+    cores: cpus().length,
+    log: (line) => process.stderr.write(line + '\n'),
+  }
+  let result: BenchPart
+  try {
+    result = await part(ctx)
+  } catch (err) {
+    console.error(err)
+    process.exit(1)
+  }
+  console.log(`## ${result.title}\n`)
+  if (result.command) console.log(`Command: \`${result.command}\`\n`)
+  console.log(result.markdown + '\n')
+  for (const b of result.budgets) {
+    console.log(`${b.pass ? 'PASS' : 'FAIL'}  ${b.name}: ${b.value} ${b.unit} (budget ${b.kind === 'max' ? (b.strict ? '<' : '≤') : b.strict ? '>' : '≥'} ${b.limit})`)
+  }
+  console.log(`\n(work folder: ${workDir})`)
+  if (result.budgets.some((b) => !b.pass)) process.exitCode = 1
+}
+
