@@ -14,3 +14,12 @@ export async function assertCanSeeAthlete(viewer: UserModel, athleteId: number, 
   if (viewer.role === 'coach' && (await isCoachOf(viewer.id, athleteId))) return
   throw AppError.notFound(what)
 }
+
+/**
+ * May this user train with this exercise? The shared library, their own, or (a lifter) one of
+ * their coaches'. Another coach's own exercises stay that coach's.
+ */
+export async function canUseExercise(user: UserModel, exercise: { ownerId: number | null }): Promise<boolean> {
+  if (exercise.ownerId === null || exercise.ownerId === user.id) return true
+  return user.role === 'lifter' && (await isCoachOf(exercise.ownerId, user.id))
+}

@@ -187,9 +187,9 @@ export async function patchPlan(viewer: UserModel, id: number, input: UpdatePlan
   return toPlan((await loadPlan(id))!)
 }
 
-/** Copies a plan (the copy is the caller's own); slots get new ids and start without history. */
+/** Copies the author's own plan (an athlete on it may read it, not copy it); slots get new ids and start without history. */
 export async function duplicatePlan(viewer: UserModel, id: number): Promise<Plan> {
-  const source = await getPlan(viewer, id)
+  const source = toPlan(await ownedPlan(viewer, id))
   return createPlan(viewer, {
     name: `${source.name} (copy)`.slice(0, 80),
     splitKind: source.splitKind,

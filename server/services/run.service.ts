@@ -12,6 +12,7 @@ import {
   AssignmentModel, CommentModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel, SlotModel, UserModel,
 } from '../db'
 import { AppError } from '../errors'
+import { canUseExercise } from './access.service'
 import { toSessionSummary } from './presenters'
 import { computeSessionFlags } from './review-flags.service'
 import { sessionForViewer } from './session.service'
@@ -238,7 +239,9 @@ export async function logSet(lifter: UserModel, sessionId: number, setId: string
   return sequelize.transaction(async (transaction) => {
     const session = await ownSession(lifter, sessionId, transaction)
     const exercise = await ExerciseModel.findByPk(input.exerciseId, { transaction })
-    if (!exercise) throw AppError.badRequest('Unknown exercise', [{ path: 'exerciseId', message: 'No such exercise' }])
+    // One the lifter may use, or one already in this session (a queued set still syncs after its coach left).
+    const usable = exercise && ((await canUseExercise(lifter, exercise)) || (await SetLogModel.count({ where: { sessionId: session.id, exerciseId: exercise.id }, transaction })) > 0)
+    if (!exercise || !usable) throw AppError.badRequest('Unknown exercise', [{ path: 'exerciseId', message: 'No such exercise' }])
     const editedAt = new Date(input.editedAt)
     let set = await SetLogModel.findByPk(setId, { transaction })
     if (set && set.sessionId !== session.id) throw AppError.conflict('set_elsewhere', 'This set belongs to another session')
@@ -279,9 +282,11 @@ export async function logSet(lifter: UserModel, sessionId: number, setId: string
   })
 }
 
-async function exerciseForSession(exerciseId: number) {
+/** An exercise the lifter may use (not another coach's own), or with `sessionId` one already in that session. */
+async function exerciseForSession(lifter: UserModel, exerciseId: number, sessionId?: number) {
   const exercise = await ExerciseModel.findByPk(exerciseId)
-  if (!exercise) throw AppError.badRequest('Unknown exercise', [{ path: 'toExerciseId', message: 'No such exercise' }])
+  const usable = exercise && ((await canUseExercise(lifter, exercise)) || (sessionId !== undefined && (await SetLogModel.count({ where: { sessionId, exerciseId } })) > 0))
+  if (!exercise || !usable) throw AppError.badRequest('Unknown exercise', [{ path: 'toExerciseId', message: 'No such exercise' }])
   return exercise
 }
 
@@ -289,7 +294,7 @@ async function exerciseForSession(exerciseId: number) {
 export async function swapExercise(lifter: UserModel, sessionId: number, input: SwapExerciseInput) {
   const session = await ownSession(lifter, sessionId)
   assertRunning(session)
-  const [from, to] = await Promise.all([exerciseForSession(input.exerciseId), exerciseForSession(input.toExerciseId)])
+  const [from, to] = await Promise.all([exerciseForSession(lifter, input.exerciseId, sessionId), exerciseForSession(lifter, input.toExerciseId)])
   if (from.pattern !== to.pattern) {
     throw AppError.badRequest('Swap for an exercise of the same movement pattern', [
       { path: 'toExerciseId', message: `Pick a ${from.pattern.replaceAll('_', ' ')} exercise` },
@@ -321,7 +326,7 @@ export async function swapExercise(lifter: UserModel, sessionId: number, input: 
 export async function addExercise(lifter: UserModel, sessionId: number, input: AddExerciseInput) {
   const session = await ownSession(lifter, sessionId)
   assertRunning(session)
-  const exercise = await exerciseForSession(input.exerciseId)
+  const exercise = await exerciseForSession(lifter, input.exerciseId)
   const last = await SetLogModel.max<number, SetLogModel>('position', { where: { sessionId } })
   const blockIndex = last === null ? 0 : Math.floor(last / BLOCK_STRIDE) + 1
   const [gym, history] = await Promise.all([gymOf(lifter), historyFor(lifter.id, [{ exerciseId: exercise.id, slotId: null }], sessionId)])
