@@ -1,4 +1,5 @@
-import { Router } from 'express'
+import { Router, type RequestHandler } from 'express'
+import { AppError } from '../errors'
 import type { AppConfig } from '../config'
 import { readOutbox } from '../mail/outbox'
 
@@ -6,11 +7,23 @@ const escape = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').rep
 const linkify = (s: string) => escape(s).replace(/https?:\/\/[^\s<]+/g, (url) => `<a href="${url}">${url}</a>`)
 
 /**
+ * The outbox holds live invitation and password-reset links, so only this machine may read it:
+ * the address of the connection itself, not a forwarded header, must be loopback. A deployment
+ * for other people sets SMTP_HOST, and then these routes do not exist at all.
+ */
+export const loopbackOnly: RequestHandler = (req, _res, next) => {
+  const address = req.socket.remoteAddress ?? ''
+  if (address === '127.0.0.1' || address === '::1' || address === '::ffff:127.0.0.1') return next()
+  next(AppError.notFound('Page'))
+}
+
+/**
  * The local outbox, only while the app uses its own fake SMTP server: a page listing every
  * message so a person can click an invitation link, and the same as JSON for tests.
  */
 export function devRoutes(config: AppConfig) {
   const dev = Router()
+  dev.use(['/api/dev', '/dev'], loopbackOnly)
   dev.get('/api/dev/outbox', async (_req, res) => {
     res.json({ messages: await readOutbox(config.mail.outboxDir) })
   })

@@ -8,6 +8,7 @@ import { passwordResetMail } from '../mail/templates'
 import { hashLinkToken, newLinkToken } from './token-hash'
 import type { UploadStorage } from '../storage/upload-storage'
 import { removeFilesOf } from './upload.service'
+import { handOverExercisesOf } from './exercise.service'
 import { assertNotCommonPassword } from './password-policy'
 import { issueToken } from './token.service'
 import { toUser } from './presenters'
@@ -102,9 +103,15 @@ export async function changePassword(config: AppConfig, user: UserModel, input: 
   return { token: issueToken(config, user), user: toUser(user) }
 }
 
-/** Deletes the account and everything that is only the user's (sessions, sets, videos and their files). */
+/**
+ * Deletes the account and everything that is only the user's (sessions, sets, videos and their
+ * files). Exercises they made stay, as private copies, with the people who trained with them.
+ */
 export async function deleteAccount(storage: UploadStorage, user: UserModel, password: string) {
   if (!(await bcrypt.compare(password, user.passwordHash))) throw new AppError(401, 'invalid_credentials', 'Wrong password')
   await removeFilesOf(storage, { ownerId: user.id })
-  await user.destroy()
+  await UserModel.sequelize!.transaction(async (transaction) => {
+    await handOverExercisesOf(user, transaction)
+    await user.destroy({ transaction })
+  })
 }

@@ -1,6 +1,9 @@
-import { Op } from 'sequelize'
+import { Op, type Transaction } from 'sequelize'
 import type { CreateExerciseInput, Exercise, ListExercisesQuery } from '@shared/schemas/exercise.schema'
-import { CoachAthleteModel, ExerciseModel, type UserModel } from '../db'
+import {
+  CoachAthleteModel, DayVersionModel, ExerciseModel, NextStepModel, PlanDayModel, PlanModel, SessionModel, SetLogModel, SlotModel,
+  type UserModel,
+} from '../db'
 import { AppError } from '../errors'
 
 export function toExercise(e: ExerciseModel): Exercise {
@@ -43,4 +46,42 @@ export async function createExercise(owner: UserModel, input: CreateExerciseInpu
   const clash = await ExerciseModel.findOne({ where: { name: input.name, [Op.or]: [{ ownerId: null }, { ownerId: owner.id }] } })
   if (clash) throw AppError.conflict('exercise_exists', 'An exercise with this name is already in your library')
   return toExercise(await ExerciseModel.create({ ...input, ownerId: owner.id }))
+}
+
+/**
+ * Before a user's account goes: an exercise they made lives on for everyone who trained with it.
+ * Each other user whose sessions, next steps or own plans use it gets a private copy, and their
+ * rows point to the copy, so their logbook is unchanged and nobody else sees it.
+ */
+export async function handOverExercisesOf(user: UserModel, transaction: Transaction) {
+  const owned = await ExerciseModel.findAll({ where: { ownerId: user.id }, transaction })
+  for (const exercise of owned) {
+    const loggedIn = await SetLogModel.findAll({ attributes: ['sessionId'], where: { exerciseId: exercise.id }, group: ['sessionId'], transaction })
+    const setUsers = await SessionModel.findAll({
+      attributes: ['athleteId'],
+      where: { id: loggedIn.map((s) => s.sessionId), athleteId: { [Op.ne]: user.id } },
+      transaction,
+    })
+    const stepUsers = await NextStepModel.findAll({ attributes: ['athleteId'], where: { exerciseId: exercise.id, athleteId: { [Op.ne]: user.id } }, transaction })
+    // Slots of other people's own plans (the user's plans go with the account).
+    const slots = await SlotModel.findAll({
+      attributes: ['id'],
+      where: { exerciseId: exercise.id },
+      include: [{ model: DayVersionModel, as: 'version', attributes: ['id'], required: true,
+        include: [{ model: PlanDayModel, as: 'day', attributes: ['id'], required: true,
+          include: [{ model: PlanModel, as: 'plan', attributes: ['ownerId'], required: true, where: { ownerId: { [Op.ne]: user.id } } }] }] }],
+      transaction,
+    })
+    const slotOwner = (slot: SlotModel) => (slot as unknown as { version: { day: { plan: { ownerId: number } } } }).version.day.plan.ownerId
+    const heirs = new Set<number>([...setUsers.map((s) => s.athleteId), ...stepUsers.map((s) => s.athleteId), ...slots.map(slotOwner)])
+    for (const heirId of heirs) {
+      const { id: _id, ownerId: _owner, createdAt: _c, updatedAt: _u, ...fields } = exercise.get({ plain: true })
+      const copy = await ExerciseModel.create({ ...fields, ownerId: heirId }, { transaction })
+      const sessionIds = (await SessionModel.findAll({ attributes: ['id'], where: { athleteId: heirId }, transaction })).map((s) => s.id)
+      await SetLogModel.update({ exerciseId: copy.id }, { where: { exerciseId: exercise.id, sessionId: sessionIds }, transaction })
+      await NextStepModel.update({ exerciseId: copy.id }, { where: { exerciseId: exercise.id, athleteId: heirId }, transaction })
+      const heirSlots = slots.filter((s) => slotOwner(s) === heirId).map((s) => s.id)
+      if (heirSlots.length > 0) await SlotModel.update({ exerciseId: copy.id }, { where: { id: heirSlots }, transaction })
+    }
+  }
 }

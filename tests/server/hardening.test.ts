@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { createApp } from '../../server/app'
 import { UserModel } from '../../server/db'
 import { createLogger } from '../../server/logger'
+import { loopbackOnly } from '../../server/routes/dev.routes'
 import { createTestApp, TEST_PASSWORD, type TestApp } from '../helpers/test-app'
 
 let t: TestApp
@@ -88,5 +89,28 @@ describe('logs and errors', () => {
   it('refuses bodies over 100 kB with 413', async () => {
     const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'a@b.co', password: 'x'.repeat(150_000) })
     expect(res.status).toBe(413)
+  })
+})
+
+describe('the local outbox (no SMTP server configured)', () => {
+  it('answers on loopback, where the person running the app reads their invitation links', async () => {
+    const res = await request(t.app).get('/api/dev/outbox')
+    expect(res.status).toBe(200)
+  })
+
+  it('answers 404 to any other address, so reset links never reach another machine', () => {
+    const outcome = (remoteAddress: string | undefined) => {
+      const next = vi.fn()
+      loopbackOnly({ socket: { remoteAddress } } as never, {} as never, next)
+      const [error] = next.mock.calls[0] as [unknown]
+      return error === undefined ? 'through' : (error as { status: number }).status
+    }
+    expect(outcome('127.0.0.1')).toBe('through')
+    expect(outcome('::1')).toBe('through')
+    expect(outcome('::ffff:127.0.0.1')).toBe('through')
+    expect(outcome('192.168.1.20')).toBe(404)
+    expect(outcome('::ffff:10.0.0.7')).toBe(404)
+    expect(outcome('127.0.0.1.evil.example')).toBe(404)
+    expect(outcome(undefined)).toBe(404)
   })
 })
