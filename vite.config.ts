@@ -20,7 +20,8 @@ export default defineConfig({
     // no network after one visit. The API is never cached: sets wait in the runner's outbox.
     VitePWA({
       registerType: 'autoUpdate',
-      injectRegister: 'script',
+      // Deferred, so registering the service worker never holds up the first paint.
+      injectRegister: 'script-defer',
       includeAssets: ['favicon.svg', 'icons/apple-touch-icon.png', 'sounds/*.wav'],
       manifest: {
         name: 'Chalkline',

@@ -1,5 +1,6 @@
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
+import compression from 'compression'
 import express from 'express'
 import type { AppConfig } from './config'
 import type { Mailer } from './mail/mailer'
@@ -32,6 +33,9 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   // One log line per request: method, path, status, time; never bodies, tokens or cookies.
   app.use(pinoHttp({ logger, quietReqLogger: true, serializers: { req: (req) => ({ method: req.method, url: req.url?.replace(/sig=[^&]+/, 'sig=[redacted]') }) } }))
   app.use(securityHeaders())
+  // gzip or brotli for the client's files and the bigger JSON answers (a phone on a weak gym signal
+  // pays for every byte); answers under 1 KB go as they are.
+  app.use(compression())
   // Small JSON bodies everywhere; a logbook import (CSV text up to 5 MB) has its own parser.
   const smallJson = express.json({ limit: '100kb' })
   app.use((req, res, next) => (req.path.startsWith('/api/logbook/import') ? next() : smallJson(req, res, next)))

@@ -194,9 +194,8 @@ export function measurePageWeight(clientDir: string): PageWeight {
 
   const entryKey = Object.keys(manifest).find((k) => manifest[k]!.isEntry && k.endsWith('index.html'))
   if (!entryKey) throw new Error('page-weight: no index.html entry in the manifest')
-  if (!manifest[TRAIN_VIEW]) throw new Error(`page-weight: ${TRAIN_VIEW} is not in the manifest`)
-
-  const chunks = staticClosure(manifest, [entryKey, TRAIN_VIEW])
+  // The Train view is either its own lazy chunk or (as now) part of the entry chunk itself.
+  const chunks = staticClosure(manifest, manifest[TRAIN_VIEW] ? [entryKey, TRAIN_VIEW] : [entryKey])
   const firstLoad = new Set<string>()
   for (const key of chunks) {
     firstLoad.add(manifest[key]!.file)

@@ -114,3 +114,23 @@ describe('the local outbox (no SMTP server configured)', () => {
     expect(outcome(undefined)).toBe(404)
   })
 })
+
+describe('compression', () => {
+  it('compresses answers over 1 KB for a client that accepts gzip, and leaves small ones alone', async () => {
+    const { auth } = await t.userWithToken('coach')
+    // A coach's own exercises: a dozen of them make a few KB of JSON.
+    for (let i = 0; i < 12; i++) {
+      const made = await request(t.app).post('/api/exercises').set(auth).send({
+        name: `Sled variation ${i}`, pattern: 'squat', primaryMuscles: ['quads'], secondaryMuscles: ['glutes'],
+        equipmentKind: 'machine', loadStepKg: 5, defaultRestSec: 120,
+      })
+      expect(made.status).toBe(201)
+    }
+    const big = await request(t.app).get('/api/exercises').query({ q: 'Sled variation' }).set(auth).set('Accept-Encoding', 'gzip')
+    expect(big.status).toBe(200)
+    expect(JSON.stringify(big.body).length).toBeGreaterThan(1024)
+    expect(big.headers['content-encoding']).toBe('gzip')
+    const small = await request(t.app).get('/api/health').set('Accept-Encoding', 'gzip')
+    expect(small.headers['content-encoding']).toBeUndefined()
+  })
+})
