@@ -174,6 +174,9 @@ async function measurePage(opts: {
   const { ctx, baseUrl, name, path, slug, storage } = opts
   const lhrs: Result[] = []
   const jsons: string[] = []
+  // A run whose trace Lighthouse itself could not record (NO_NAVSTART and the like) is run again,
+  // at most twice per page; every other failed check still stops the benchmark.
+  let retries = 2
   for (let i = 1; i <= RUNS; i++) {
     const profile = mkdtempSync(join(tmpdir(), 'chalkline-lh-profile-'))
     const browser = await launchChromium(profile)
@@ -193,6 +196,12 @@ async function measurePage(opts: {
       const started = Date.now()
       const result = await lighthouse(baseUrl + path, flags)
       if (!result) throw new Error('Lighthouse returned nothing')
+      if (result.lhr.runtimeError && retries > 0) {
+        retries--
+        ctx.log(`lighthouse ${name} run ${i}/${RUNS}: ${result.lhr.runtimeError.code}, running it again`)
+        i--
+        continue
+      }
       checkLoad(result.lhr, path, storage !== null)
       lhrs.push(result.lhr)
       jsons.push(typeof result.report === 'string' ? result.report : result.report[0]!)
@@ -206,7 +215,9 @@ async function measurePage(opts: {
   const runs = lhrs.map(figuresOf)
   const medianLhr = computeMedianRun(lhrs)
   const medianIndex = lhrs.indexOf(medianLhr)
-  const file = join(ctx.workDir, `lighthouse-${slug}-median.json`)
+  // Kept after the run (the work folder is removed): bench/out is not committed.
+  mkdirSync(join(ctx.root, 'bench/out'), { recursive: true })
+  const file = join(ctx.root, 'bench/out', `lighthouse-${slug}-median.json`)
   writeFileSync(file, jsons[medianIndex]!)
   const med = (k: keyof RunFigures) => median(runs.map((r) => r[k]))
   return {
