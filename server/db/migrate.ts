@@ -5,6 +5,7 @@ import * as initialSchema from './migrations/0001-initial-schema'
 import * as sessionRunner from './migrations/0002-session-runner'
 import * as passwordResets from './migrations/0003-password-resets'
 import * as coachReview from './migrations/0004-coach-review'
+import * as queryIndexes from './migrations/0005-query-indexes'
 
 type Migration = {
   name: string
@@ -18,6 +19,7 @@ const migrations: Migration[] = [
   { name: '0002-session-runner', ...sessionRunner },
   { name: '0003-password-resets', ...passwordResets },
   { name: '0004-coach-review', ...coachReview },
+  { name: '0005-query-indexes', ...queryIndexes },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

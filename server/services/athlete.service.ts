@@ -1,11 +1,10 @@
-import { Op, fn, col } from 'sequelize'
+import { Op, fn, col, literal } from 'sequelize'
 import { bestE1rm } from '@shared/domain/records'
 import { defaultTrainingDaysPerWeek } from '@shared/domain/plan-checks'
 import type { ReviewFlag } from '@shared/domain/review-flags'
 import type { AthleteRow } from '@shared/schemas/athlete.schema'
 import {
-  AssignmentModel, CoachAthleteModel, ExerciseModel, PlanDayModel, PlanModel, ReviewModel, SessionModel, SetLogModel,
-  UserModel,
+  AssignmentModel, CoachAthleteModel, ExerciseModel, PlanDayModel, PlanModel, SessionModel, SetLogModel, UserModel,
 } from '../db'
 
 const DAY_MS = 24 * 60 * 60 * 1000
@@ -24,7 +23,7 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
   if (athleteIds.length === 0) return []
   const since = (days: number) => new Date(now.getTime() - days * DAY_MS)
 
-  const [athletes, assignments, lastSessions, recent, reviewed, trendSets] = await Promise.all([
+  const [athletes, assignments, lastSessions, recent, waiting, trendSets] = await Promise.all([
     UserModel.findAll({ where: { id: athleteIds }, order: [['name', 'ASC']] }),
     AssignmentModel.findAll({
       where: { athleteId: athleteIds, active: true },
@@ -40,10 +39,13 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       attributes: ['id', 'athleteId', 'completedAt', 'summary'],
       where: { athleteId: athleteIds, status: 'completed', completedAt: { [Op.gte]: since(ADHERENCE_DAYS) } },
     }),
-    ReviewModel.findAll({
-      attributes: ['sessionId'],
-      include: [{ model: SessionModel, as: 'session', attributes: [], where: { athleteId: athleteIds } }],
-    }),
+    // Completed sessions nobody has reviewed, counted in the database (reviews has an index on session_id).
+    SessionModel.findAll({
+      attributes: ['athleteId', [fn('COUNT', col('id')), 'count']],
+      where: { athleteId: athleteIds, status: 'completed', id: { [Op.notIn]: literal('(SELECT session_id FROM reviews)') } },
+      group: ['athleteId'],
+      raw: true,
+    }) as unknown as Promise<Array<{ athleteId: number; count: number }>>,
     SetLogModel.findAll({
       attributes: ['sessionId', 'exerciseId', 'loadKg', 'reps'],
       where: { role: 'compound_primary', kind: { [Op.ne]: 'warmup' }, reps: { [Op.gt]: 0 }, loadKg: { [Op.gt]: 0 }, skipped: false },
@@ -53,13 +55,6 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       ],
     }),
   ])
-  const reviewedIds = new Set(reviewed.map((r) => r.sessionId))
-  const waiting = (await SessionModel.findAll({
-    attributes: ['athleteId', [fn('COUNT', col('id')), 'count']],
-    where: { athleteId: athleteIds, status: 'completed', id: { [Op.notIn]: [...reviewedIds, 0] } },
-    group: ['athleteId'],
-    raw: true,
-  })) as unknown as Array<{ athleteId: number; count: number }>
 
   return athletes.map((a) => {
     const assignment = assignments.find((x) => x.athleteId === a.id)

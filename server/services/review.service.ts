@@ -1,4 +1,4 @@
-import { Op, col, fn } from 'sequelize'
+import { Op, col, fn, literal } from 'sequelize'
 import type { ReviewFlag } from '@shared/domain/review-flags'
 import type { Comment, CreateCommentInput, ReviewDeskQuery, ReviewDeskRow, SessionReview } from '@shared/schemas/review.schema'
 import type { AppConfig } from '../config'
@@ -21,22 +21,21 @@ export async function listReviewDesk(coach: UserModel, query: ReviewDeskQuery): 
     athleteIds = [query.athleteId]
   }
   if (athleteIds.length === 0) return []
-  const reviewed = await ReviewModel.findAll({
-    attributes: ['sessionId', 'reviewedAt'],
-    include: [{ model: SessionModel, as: 'session', attributes: [], where: { athleteId: athleteIds } }],
-  })
-  const reviewedIds = reviewed.map((r) => r.sessionId)
+  // Reviewed or not is decided in the database (reviews has an index on session_id), so only the
+  // page's own reviews are read, whatever the size of the history.
+  const reviewedIds = literal('(SELECT session_id FROM reviews)')
   const sessions = await SessionModel.findAll({
     where: {
       athleteId: athleteIds,
       status: 'completed',
-      ...(query.status === 'waiting' ? { id: { [Op.notIn]: [...reviewedIds, 0] } } : {}),
-      ...(query.status === 'reviewed' ? { id: reviewedIds } : {}),
+      ...(query.status === 'waiting' ? { id: { [Op.notIn]: reviewedIds } } : {}),
+      ...(query.status === 'reviewed' ? { id: { [Op.in]: reviewedIds } } : {}),
     },
     include: [{ model: UserModel, as: 'athlete', attributes: ['id', 'name'] }],
     order: [['completedAt', 'DESC'], ['id', 'DESC']],
     limit: query.limit,
   })
+  const reviewed = await ReviewModel.findAll({ attributes: ['sessionId', 'reviewedAt'], where: { sessionId: sessions.map((s) => s.id) } })
   const counts = (await CommentModel.findAll({
     attributes: ['sessionId', [fn('COUNT', col('id')), 'count']],
     where: { sessionId: sessions.map((s) => s.id) },
