@@ -17,6 +17,23 @@ const PLATEAU_DAYS = 14
  * estimated-1RM trend of their main lifts, in a fixed number of queries whatever the number
  * of athletes.
  */
+interface TrendRow {
+  sessionId: number
+  loadKg: number
+  reps: number
+  session: { athleteId: number; completedAt: string | Date }
+  exercise: { name: string | null } | null
+}
+
+/** A date from a raw row: SQLite keeps Sequelize's dates as "YYYY-MM-DD HH:MM:SS.SSS +00:00". */
+function isoFromStored(value: string | Date): string {
+  if (value instanceof Date) return value.toISOString()
+  const m = /^(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2}:\d{2}(?:\.\d+)?) ?([+-]\d{2}:\d{2}|Z)?$/.exec(value)
+  const date = new Date(m ? `${m[1]}T${m[2]}${m[3] ?? 'Z'}` : value)
+  if (Number.isNaN(date.getTime())) throw new Error(`unreadable stored date: ${value}`)
+  return date.toISOString()
+}
+
 export async function listAthletes(coach: UserModel, now = new Date()): Promise<AthleteRow[]> {
   const links = await CoachAthleteModel.findAll({ where: { coachId: coach.id } })
   const athleteIds = links.map((l) => l.athleteId)
@@ -46,6 +63,7 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       group: ['athleteId'],
       raw: true,
     }) as unknown as Promise<Array<{ athleteId: number; count: number }>>,
+    // Thousands of rows for a big team: plain rows, not model instances (building those cost most of the time).
     SetLogModel.findAll({
       attributes: ['sessionId', 'exerciseId', 'loadKg', 'reps'],
       where: { role: 'compound_primary', kind: { [Op.ne]: 'warmup' }, reps: { [Op.gt]: 0 }, loadKg: { [Op.gt]: 0 }, skipped: false },
@@ -53,8 +71,16 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
         { model: SessionModel, as: 'session', attributes: ['athleteId', 'completedAt'], where: { athleteId: athleteIds, status: 'completed', completedAt: { [Op.gte]: since(TREND_DAYS) } } },
         { model: ExerciseModel, as: 'exercise', attributes: ['name'] },
       ],
-    }),
+      raw: true,
+      nest: true,
+    }) as unknown as Promise<TrendRow[]>,
   ])
+  const trendByAthlete = new Map<number, TrendRow[]>()
+  for (const row of trendSets) {
+    const rows = trendByAthlete.get(row.session.athleteId) ?? []
+    rows.push(row)
+    trendByAthlete.set(row.session.athleteId, rows)
+  }
 
   return athletes.map((a) => {
     const assignment = assignments.find((x) => x.athleteId === a.id)
@@ -75,12 +101,11 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
     ].filter(Boolean)
     // Best estimated 1RM per session on each main lift, oldest first.
     const byLift = new Map<string, Map<number, { date: string; sets: Array<{ loadKg: number; reps: number }> }>>()
-    for (const s of trendSets) {
-      if (s.session!.athleteId !== a.id) continue
+    for (const s of trendByAthlete.get(a.id) ?? []) {
       const lift = s.exercise?.name ?? ''
       const sessions = byLift.get(lift) ?? new Map()
-      const entry = sessions.get(s.sessionId) ?? { date: s.session!.completedAt!.toISOString(), sets: [] }
-      entry.sets.push({ loadKg: s.loadKg!, reps: s.reps! })
+      const entry = sessions.get(s.sessionId) ?? { date: isoFromStored(s.session.completedAt), sets: [] }
+      entry.sets.push({ loadKg: Number(s.loadKg), reps: Number(s.reps) })
       sessions.set(s.sessionId, entry)
       byLift.set(lift, sessions)
     }

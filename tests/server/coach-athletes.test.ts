@@ -39,6 +39,10 @@ describe('GET /api/athletes', () => {
       for (const lift of row.e1rmTrend) {
         const dates = lift.points.map((p) => p.date)
         expect(dates).toEqual([...dates].sort())
+        for (const p of lift.points) {
+          expect(new Date(p.date).toISOString()).toBe(p.date)
+          expect(p.e1rmKg).toBeGreaterThan(0)
+        }
       }
     }
     // The advanced lifter's stalled bench press shows as a plateau.
