@@ -1,4 +1,4 @@
-import { computed, onScopeDispose, ref, watch } from 'vue'
+import { computed, onScopeDispose, ref, toRaw, watch } from 'vue'
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { useEventListener } from '@vueuse/core'
 import { backoffTarget } from '@shared/domain/schemes'
@@ -14,6 +14,7 @@ import {
   type RestClockState,
   type RunnerSnapshot,
 } from '@/offline/device-store'
+import { afterNextPaint } from '@/offline/after-paint'
 import { changesFromLegacy, readLegacyRunData, removeLegacyRunData, type LegacyRunData } from '@/offline/legacy-run-storage'
 import { localDay } from '@/utils/dates'
 import { newUuid } from '@/utils/uuid'
@@ -24,11 +25,14 @@ import { newUuid } from '@/utils/uuid'
  * so a reload or a crash resumes at the same set with the same rest clock and the same unsent sets.
  *
  * Logging never waits for the network or the disk: the store changes at once, and the changes of
- * that moment are written in one IndexedDB transaction right after. A set is sent only once its
- * outbox entry has committed, in outbox order, one at a time, retried with backoff on no signal or
- * a 5xx, and removed only when the server has acknowledged it. Each entry carries the set's full
- * body with its `editedAt`; a later edit of the same set replaces the entry (the server keeps the
- * later edit too), and the server is idempotent by the set's UUID, so a retry never duplicates.
+ * that moment are written in one IndexedDB transaction right after the next frame (so the next set
+ * card is painted first). A set is sent only once its outbox entry has committed, in outbox order,
+ * one at a time, retried with backoff on no signal or a 5xx, and removed only when the server has
+ * acknowledged it. A log does not force a send while a retry is waiting or while the browser says it
+ * is offline: the retry (or the 'online' event) sends the whole outbox in order. Each entry carries
+ * the set's full body with its `editedAt`; a later edit of the same set replaces the entry (the
+ * server keeps the later edit too), and the server is idempotent by the set's UUID, so a retry never
+ * duplicates.
  *
  * With no IndexedDB (some private modes) the store keeps everything in memory and says so in
  * `storageWarning`: logging still works, but a reload loses what was not sent.
@@ -142,8 +146,22 @@ export const useRunStore = defineStore('run', () => {
   /** Set while loading assigns what the device held, so that is not written straight back. */
   let applyingLoaded = false
 
-  /** A copy without Vue's proxies (IndexedDB stores structured clones, and proxies are not cloneable). */
-  const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value)) as T
+  /**
+   * A copy without Vue's proxies (IndexedDB stores structured clones, and proxies are not cloneable).
+   * The session's arrays keep reactive proxies of unchanged sets, so a shallow `toRaw` is not enough;
+   * this walks the tree once, unwrapping and copying arrays and plain objects, which costs a fraction
+   * of a JSON round trip (no string is built or parsed).
+   */
+  function plain<T>(value: T): T {
+    const raw: unknown = toRaw(value)
+    if (Array.isArray(raw)) return raw.map(plain) as T
+    if (raw !== null && typeof raw === 'object' && Object.getPrototypeOf(raw) === Object.prototype) {
+      const copy: Record<string, unknown> = {}
+      for (const [key, item] of Object.entries(raw)) copy[key] = plain(item)
+      return copy as T
+    }
+    return raw as T
+  }
 
   function useMemoryOnly(reason: unknown) {
     memoryOnly = true
@@ -190,12 +208,43 @@ export const useRunStore = defineStore('run', () => {
 
   let writes: Promise<void> = Promise.resolve()
 
-  /** Queues one write for all changes of this moment (it runs after the current task's changes). */
+  /**
+   * Queues one write for all changes of this moment. It runs in a task right after the next frame
+   * is painted, not in this turn: copying the session and serialising it into the transaction is
+   * main-thread work that would otherwise sit between a tap and the next set card. That keeps the
+   * gap between a change and its commit to about one frame (a set is sent only after its commit, so
+   * sending waits that frame too); changes made meanwhile join the same transaction. A caller that
+   * needs the commit now (`whenSaved`, `flush`) hurries the queued write past that wait.
+   */
   function scheduleWrite() {
     changedAt ??= typeof performance === 'undefined' ? null : performance.now()
     if (writeQueued) return
     writeQueued = true
-    writes = writes.then(writeChanges)
+    writes = writes.then(frameThenWrite)
+  }
+
+  /** Set when a caller needs the queued write committed now; cleared once it has run. */
+  let hurried = false
+  /** Ends the queued write's wait for the frame (set while it waits). */
+  let endFrameWait: (() => void) | null = null
+
+  async function frameThenWrite() {
+    if (!hurried) {
+      await new Promise<void>((resolve) => {
+        endFrameWait = resolve
+        void afterNextPaint().then(resolve)
+      })
+      endFrameWait = null
+    }
+    hurried = false
+    await writeChanges()
+  }
+
+  /** The queued write (if any) runs now rather than after the next frame. */
+  function hurryWrite() {
+    if (!writeQueued) return
+    hurried = true
+    endFrameWait?.()
   }
   function markSet(setId: string) {
     dirtySets.add(setId)
@@ -280,18 +329,28 @@ export const useRunStore = defineStore('run', () => {
 
   const loading = load().catch(useMemoryOnly)
   writes = loading
-  void loading.then(() => (queue.value.length > 0 ? flush() : undefined))
+  void loading.then(() => (queue.value.length > 0 ? sendSoon() : undefined))
 
   /** Resolves once the copy on the device has been loaded (at once on later calls). */
   function whenReady(): Promise<void> {
     return loading
   }
 
-  /** Resolves once every change made so far is on the device (or the device cannot keep it). */
+  /** Resolves once every change made so far has been written (or the device cannot keep it). */
+  async function writesSettled(): Promise<void> {
+    let current: Promise<void>
+    do {
+      current = writes
+      await current
+    } while (current !== writes)
+  }
+
+  /** Resolves once every change made so far is on the device (or the device cannot keep it), at once. */
   async function whenSaved(): Promise<void> {
     let current: Promise<void>
     do {
       current = writes
+      hurryWrite()
       await current
     } while (current !== writes)
   }
@@ -349,7 +408,7 @@ export const useRunStore = defineStore('run', () => {
     const entry: QueuedSetLog = { seq: nextSeq++, sessionId: session.value.id, setId: set.id, body: toLogBody(set), attempts: 0 }
     queue.value = [...queue.value.filter((i) => i.setId !== set.id), entry]
     markSet(set.id)
-    void flush()
+    sendSoon()
   }
 
   const isSameEntry = (a: QueuedSetLog, b: QueuedSetLog) => a.setId === b.setId && a.seq === b.seq
@@ -380,8 +439,9 @@ export const useRunStore = defineStore('run', () => {
     while (queue.value.length > 0) {
       const item = queue.value[0]
       if (!isDurable(item)) {
-        // Sent only once its entry has committed on the device: wait for the write under way.
-        await whenSaved()
+        // Sent only once its entry has committed on the device: wait for the write under way (not
+        // hurried: after a tap, that write waits for the next card's frame).
+        await writesSettled()
         if (queue.value[0] && isSameEntry(queue.value[0], item) && !isDurable(item)) markSet(item.setId)
         continue
       }
@@ -411,12 +471,21 @@ export const useRunStore = defineStore('run', () => {
     const delay = Math.min(MAX_RETRY_MS, 1000 * 2 ** (attempts - 1))
     retryTimer = setTimeout(() => {
       retryTimer = null
-      void flush()
+      void startSending()
     }, delay)
   }
 
-  /** Sends the queue in order; resolves when it is empty or waiting for a retry. */
+  /**
+   * Sends the queue in order now, also cutting short a retry's wait and the device write's wait for
+   * a frame (signal is back, the page is shown again, or the lifter finishes); resolves when the
+   * queue is empty or waiting for a retry.
+   */
   function flush(): Promise<void> {
+    hurryWrite()
+    return startSending()
+  }
+
+  function startSending(): Promise<void> {
     if (!sending) {
       if (retryTimer) {
         clearTimeout(retryTimer)
@@ -427,6 +496,24 @@ export const useRunStore = defineStore('run', () => {
       })
     }
     return sending
+  }
+
+  const browserOffline = () => typeof navigator !== 'undefined' && navigator.onLine === false
+
+  /**
+   * After a change: sends unless a send is under way (it takes the new entry in turn), a retry is
+   * waiting (it sends the whole queue when it fires), or the browser knows it has no network (the
+   * 'online' event sends). So taps with no signal do not each start a doomed request. Offline with
+   * no retry waiting, a retry is set up, so the outbox is still tried with backoff should the
+   * browser's online flag be wrong.
+   */
+  function sendSoon() {
+    if (sending || retryTimer) return
+    if (browserOffline()) {
+      scheduleRetry(Math.max(1, queue.value[0]?.attempts ?? 1))
+      return
+    }
+    void startSending()
   }
 
   if (typeof window !== 'undefined') useEventListener(window, 'online', () => void flush())

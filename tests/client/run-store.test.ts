@@ -27,6 +27,7 @@ afterEach(async () => {
   const run = useRunStore()
   await run.flush()
   await run.whenSaved()
+  run.$dispose() // its 'online' listener and retry timer go with it
   vi.useRealTimers()
   vi.unstubAllGlobals()
   setAuthToken(null)
@@ -193,6 +194,94 @@ describe('run store', () => {
       `/api/sessions/41/sets/${second.id}`,
     ])
     expect(run.pendingCount).toBe(0)
+  })
+
+  it('writes a log to the device right after the next frame (not before it is drawn), then sends it; whenSaved does not wait for the frame', async () => {
+    const frames: FrameRequestCallback[] = []
+    vi.stubGlobal('requestAnimationFrame', (callback: FrameRequestCallback) => frames.push(callback))
+    const { requests } = stubFetch(okReply())
+    const run = storeWithSession()
+    await run.whenSaved() // the adopted session, written at once: this caller asked for it
+    frames.length = 0
+    const set = run.currentSet!
+
+    run.logSet(set.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    await realTasks()
+    expect(frames).toHaveLength(1) // waiting for the frame that draws the next set
+    expect((await onDevice()).outbox).toEqual([])
+    expect(requests).toHaveLength(0) // and so not sent yet
+
+    frames.shift()!(performance.now())
+    await vi.waitFor(() => expect(requests).toHaveLength(1))
+    expect(requests[0].url).toBe(`/api/sessions/41/sets/${set.id}`)
+
+    const next = run.currentSet!
+    run.logSet(next.id, { loadKg: 80, reps: 3, rir: null, failure: false })
+    await run.whenSaved() // hurried: no frame needed
+    expect((await onDevice()).outbox.map((e) => e.setId)).toContain(next.id)
+  })
+
+  it('makes no send attempt while the browser is offline, and sends as soon as the online event fires', async () => {
+    const online = vi.spyOn(navigator, 'onLine', 'get').mockReturnValue(false)
+    const { requests } = stubFetch(okReply(), okReply())
+    const run = storeWithSession()
+    const first = run.currentSet!
+    run.logSet(first.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    const second = run.currentSet!
+    run.logSet(second.id, { loadKg: 80, reps: 3, rir: null, failure: false })
+    await run.whenSaved()
+    await realTasks()
+    expect(requests).toHaveLength(0) // no request per tap with no network
+    expect((await onDevice()).outbox.map((e) => e.setId)).toEqual([first.id, second.id]) // kept on the device meanwhile
+
+    online.mockReturnValue(true)
+    window.dispatchEvent(new Event('online'))
+    await vi.waitFor(() => expect(requests).toHaveLength(2)) // at once: no timer was advanced
+
+    expect(requests.map((r) => r.url)).toEqual([`/api/sessions/41/sets/${first.id}`, `/api/sessions/41/sets/${second.id}`])
+    await run.flush()
+    expect(run.pendingCount).toBe(0)
+    online.mockRestore()
+  })
+
+  it('still retries with backoff while the browser says it is offline (its online flag may be wrong)', async () => {
+    const online = vi.spyOn(navigator, 'onLine', 'get').mockReturnValue(false)
+    const { requests } = stubFetch(okReply())
+    const run = storeWithSession()
+    const set = run.currentSet!
+    run.logSet(set.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    await run.whenSaved()
+    await vi.advanceTimersByTimeAsync(999)
+    expect(requests).toHaveLength(0)
+
+    await vi.advanceTimersByTimeAsync(1)
+    await vi.waitFor(() => expect(requests).toHaveLength(1))
+    expect(requests[0].url).toBe(`/api/sessions/41/sets/${set.id}`)
+    online.mockRestore()
+  })
+
+  it('makes no send attempt for a new log while a retry is waiting; the retry sends the queue in order', async () => {
+    const { requests } = stubFetch({ status: 503 }, okReply(), okReply())
+    const run = storeWithSession()
+    const first = run.currentSet!
+    run.logSet(first.id, { loadKg: 25, reps: 6, rir: null, failure: false })
+    await run.whenSaved()
+    await vi.waitFor(() => expect(run.sendError).not.toBeNull())
+    expect(requests).toHaveLength(1) // refused with a 503: a retry waits 1 s
+
+    const second = run.currentSet!
+    run.logSet(second.id, { loadKg: 80, reps: 3, rir: null, failure: false })
+    await run.whenSaved()
+    await realTasks()
+    expect(requests).toHaveLength(1) // the new log did not cut the wait short
+
+    await vi.advanceTimersByTimeAsync(1_000)
+    await vi.waitFor(() => expect(run.pendingCount).toBe(0))
+    expect(requests.map((r) => r.url)).toEqual([
+      `/api/sessions/41/sets/${first.id}`,
+      `/api/sessions/41/sets/${first.id}`,
+      `/api/sessions/41/sets/${second.id}`,
+    ])
   })
 
   it('survives a reload: a new store reads the same set, the same rest clock end and the unsent queue from IndexedDB', async () => {
