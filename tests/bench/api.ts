@@ -65,7 +65,8 @@ async function signIn(baseUrl: string, email: string): Promise<string> {
   return body.token
 }
 
-function authed(token: string, body?: unknown) {
+/** The headers of an API call with a bearer token (and a JSON body, when there is one). */
+export function authed(token: string, body?: unknown) {
   return {
     Authorization: `Bearer ${token}`,
     ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),

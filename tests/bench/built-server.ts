@@ -3,10 +3,9 @@
  * given build, the few API calls that put a demo lifter into a started session, and running a
  * part alone.
  *
- * Started like tests/helpers/server-process.ts starts it, but from any build folder: the bench
+ * The server is started by production-server.ts (shared with the API parts) from any build folder: the bench
  * runner passes its fresh build, and a part run alone uses dist/ or $CHALKLINE_DIST.
  */
-import { spawn } from 'node:child_process'
 import { existsSync, mkdirSync, mkdtempSync } from 'node:fs'
 import { cpus, tmpdir } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
@@ -14,8 +13,8 @@ import { fileURLToPath, pathToFileURL } from 'node:url'
 import type { User } from '../../shared/schemas/auth.schema'
 import type { RunSession } from '../../shared/schemas/run.schema'
 import type { Today } from '../../shared/schemas/train.schema'
-import { freePort } from '../helpers/server-process'
 import type { BenchContext, BenchPart } from './bench-types'
+import { startProductionServer } from './production-server'
 
 export interface BuiltServer {
   baseUrl: string
@@ -34,53 +33,11 @@ export function standaloneDistDir(root: string): string {
  * (true for dist/ in the repository; a build elsewhere needs a node_modules link beside it).
  */
 export async function startBuiltServer(opts: { root: string; distDir: string; dataDir: string }): Promise<BuiltServer> {
-  const entry = join(opts.distDir, 'server', 'index.js')
-  if (!existsSync(entry)) throw new Error(`no production build at ${opts.distDir} (run npm run build, or set CHALKLINE_DIST)`)
+  if (!existsSync(join(opts.distDir, 'server', 'index.js'))) {
+    throw new Error(`no production build at ${opts.distDir} (run npm run build, or set CHALKLINE_DIST)`)
+  }
   mkdirSync(opts.dataDir, { recursive: true })
-  const port = await freePort()
-  const child = spawn(process.execPath, [entry], {
-    cwd: opts.root,
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      CLIENT_DIST: join(opts.distDir, 'client'),
-      DATABASE_PATH: join(opts.dataDir, 'bench.sqlite'),
-      BCRYPT_COST: '10',
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
-  // Keep only the tail of the request log (reading it keeps the pipe from filling up).
-  let output = ''
-  const keep = (d: Buffer) => {
-    output = (output + d.toString()).slice(-8000)
-  }
-  child.stdout.on('data', keep)
-  child.stderr.on('data', keep)
-  const baseUrl = `http://127.0.0.1:${port}`
-  const deadline = Date.now() + 60_000
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`)
-    try {
-      if ((await fetch(`${baseUrl}/api/health`)).ok) break
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) {
-      child.kill('SIGKILL')
-      throw new Error(`server did not start within 60 s:\n${output}`)
-    }
-    await new Promise((r) => setTimeout(r, 200))
-  }
-  async function stop() {
-    if (child.exitCode !== null || child.signalCode !== null) return
-    const exited = new Promise((r) => child.once('exit', r))
-    child.kill('SIGTERM')
-    await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))])
-    if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL')
-  }
-  return { baseUrl, stop }
+  return startProductionServer(opts.distDir, join(opts.dataDir, 'bench.sqlite'), join(opts.dataDir, 'server.log'), { BCRYPT_COST: '10' })
 }
 
 /** A JSON call to the API with an optional bearer token; throws on any non-2xx answer. */

@@ -7,7 +7,7 @@
  */
 import autocannon from 'autocannon'
 import { budget, type BenchContext, type BenchPart } from './bench-types'
-import { nextSetRequest, openApiWorld } from './api'
+import { authed, nextSetRequest, openApiWorld } from './api'
 
 const RATE = 200
 const DURATION_S = 60
@@ -22,19 +22,18 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
     const { server } = world
     let turn = 0
     const lifter = () => world.lifters[turn++ % world.lifters.length]!
-    const auth = (token: string, json = false) => ({ Authorization: `Bearer ${token}`, ...(json ? { 'Content-Type': 'application/json' } : {}) })
     const put: autocannon.Request = {
       method: 'PUT',
       setupRequest: (req) => {
         const l = lifter()
-        return { ...req, ...nextSetRequest(l), headers: auth(l.token, true) }
+        return { ...req, ...nextSetRequest(l), headers: authed(l.token, {}) }
       },
     }
     const today: autocannon.Request = {
       method: 'GET',
-      setupRequest: (req) => ({ ...req, path: `/api/train/today?date=${world.today}&tzOffset=0`, headers: auth(lifter().token) }),
+      setupRequest: (req) => ({ ...req, path: `/api/train/today?date=${world.today}&tzOffset=0`, headers: authed(lifter().token) }),
     }
-    const athletes: autocannon.Request = { method: 'GET', path: '/api/athletes', headers: auth(world.coachToken) }
+    const athletes: autocannon.Request = { method: 'GET', path: '/api/athletes', headers: authed(world.coachToken) }
     // Six set logs, three "today" screens and one coach's athlete table in every ten requests.
     const mix = [put, today, put, put, today, put, athletes, put, today, put]
 
