@@ -2,6 +2,7 @@ import { mkdirSync } from 'node:fs'
 import { dirname } from 'node:path'
 import { Sequelize, type Transaction } from 'sequelize'
 import { makeConcurrencySafe } from './sqlite-concurrency'
+import { cacheTableInfo } from './sqlite-table-info-cache'
 import { ClubModel, CoachAthleteModel, InviteModel, UserModel, BodyWeightModel, PasswordResetModel } from './models/user.model'
 import { EquipmentProfileModel, ExerciseModel } from './models/exercise.model'
 import { AssignmentModel, DayVersionModel, PlanDayModel, PlanModel, SlotModel } from './models/plan.model'
@@ -80,7 +81,13 @@ export async function openDatabase(storage: string, options: { logging?: (sql: s
   })
   // SQLite-only settings belong here, in the database setup, and nowhere else.
   makeConcurrencySafe(sequelize)
+  cacheTableInfo(sequelize)
   await sequelize.query('PRAGMA journal_mode = WAL')
+  // With WAL, NORMAL syncs at checkpoints rather than at every commit: a crash of the app or the
+  // database can never corrupt it, and only a power cut can lose the last commits (SQLite's
+  // documentation, "PRAGMA synchronous"). Every commit waiting for the disk capped set logging
+  // at about a thousand a second; the phone keeps each set until the server has acknowledged it.
+  await sequelize.query('PRAGMA synchronous = NORMAL')
   await sequelize.query('PRAGMA foreign_keys = ON')
   await sequelize.query('PRAGMA busy_timeout = 5000')
   for (const model of models) model.initModel(sequelize)
