@@ -11,6 +11,7 @@ import type { TodayQuery } from '@shared/schemas/train.schema'
 import {
   AssignmentModel, CommentModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel, SlotModel, UserModel,
 } from '../db'
+import { upsertOwnSetLog } from '../db/set-log-upsert'
 import { AppError } from '../errors'
 import { canUseExercise } from './access.service'
 import { toSessionSummary } from './presenters'
@@ -46,6 +47,18 @@ export function toRunSet(set: SetLogModel): RunSet {
     note: set.note,
     loggedAt: set.loggedAt?.toISOString() ?? null,
     editedAt: set.editedAt?.toISOString() ?? null,
+  }
+}
+
+/** The set as `toRunSet` would read it back after storing `input` (dates to the millisecond). */
+function storedSet(id: string, input: LogSetInput): RunSet {
+  return {
+    id, exerciseId: input.exerciseId, slotId: input.slotId, position: input.position, kind: input.kind,
+    targetLoadKg: input.targetLoadKg, targetRepsMin: input.targetRepsMin, targetRepsMax: input.targetRepsMax,
+    targetReps: input.targetReps, toFailure: input.toFailure, targetRir: input.targetRir, loadKg: input.loadKg,
+    reps: input.reps, rir: input.rir, failure: input.failure, skipped: input.skipped, note: input.note,
+    loggedAt: input.loggedAt ? new Date(input.loggedAt).toISOString() : null,
+    editedAt: new Date(input.editedAt).toISOString(),
   }
 }
 
@@ -236,6 +249,11 @@ export async function startSession(lifter: UserModel, input: StartSessionInput, 
  */
 export async function logSet(lifter: UserModel, sessionId: number, setId: string, input: LogSetInput) {
   const sequelize = SessionModel.sequelize!
+  // Nearly every tap: one statement. A top set re-targets its back-offs, and the cases the
+  // statement leaves alone (refusals, late edits, new exercises) are told apart below.
+  if (input.kind !== 'top' && (await upsertOwnSetLog(sequelize, { lifterId: lifter.id, sessionId, setId }, input))) {
+    return { set: storedSet(setId, input), updated: [] }
+  }
   return sequelize.transaction(async (transaction) => {
     const session = await ownSession(lifter, sessionId, transaction)
     const exercise = await ExerciseModel.findByPk(input.exerciseId, { transaction })
