@@ -2,7 +2,7 @@ import { copyFileSync, existsSync } from 'node:fs'
 import { join } from 'node:path'
 import type { BenchContext } from './bench-types'
 
-let template: Promise<{ path: string; seeded: Awaited<ReturnType<typeof seed>> }> | undefined
+let template: Promise<{ path: string }> | undefined
 
 async function seed(path: string) {
   // Loaded lazily: only the parts that need the large club pay for Sequelize and the seed.
@@ -19,16 +19,22 @@ async function seed(path: string) {
  */
 export async function largeDatabaseCopy(ctx: BenchContext, name: string) {
   template ??= (async () => {
+    // A club seeded earlier (`npm run seed:large`), for repeated tries of one part: not re-seeded.
+    const reused = process.env.BENCH_LARGE_TEMPLATE
+    if (reused) {
+      ctx.log(`large demo club: reusing ${reused} (BENCH_LARGE_TEMPLATE)`)
+      return { path: reused }
+    }
     const path = join(ctx.workDir, 'large-template.sqlite')
     ctx.log('seeding the large demo club (150 athletes, two years each)...')
     const seeded = await seed(path)
     ctx.log(`seeded: ${JSON.stringify(seeded)}`)
-    return { path, seeded }
+    return { path }
   })()
-  const { path, seeded } = await template
+  const { path } = await template
   const copy = join(ctx.workDir, `${name}.sqlite`)
   // No connection is open on the template, so the file (and a write-ahead log, if one was left) is whole.
   copyFileSync(path, copy)
   if (existsSync(path + '-wal')) copyFileSync(path + '-wal', copy + '-wal')
-  return { path: copy, seeded }
+  return { path: copy }
 }
