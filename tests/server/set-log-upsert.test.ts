@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { SetLogModel } from '../../server/db'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
 import { seedDemo } from '../../server/db/seed/demo'
-import { asStoredDate } from '../../server/db/set-log-upsert'
+import { asStoredDate, UPSERT_OWN_SET } from '../../server/db/set-log-upsert'
 import type { RunSession, RunSet } from '../../shared/schemas/run.schema'
 import { createTestApp, type TestApp } from '../helpers/test-app'
 
@@ -147,5 +147,15 @@ describe('the one-statement set log', () => {
     const res = await put(id, body(template, { exerciseId: fresh.id, slotId: null, kind: 'straight', position: 9_300 }))
     expect(res.status).toBe(200)
     expect((await SetLogModel.findByPk(id))!.exerciseId).toBe(fresh.id)
+  })
+
+  it("finds the session's sets through the session index, not by walking every set of the exercise", async () => {
+    const names = [...UPSERT_OWN_SET.matchAll(/\$(\w+)/g)].map((m) => m[1])
+    const bind = Object.fromEntries(names.map((n) => [n, 1]))
+    const plan = await SetLogModel.sequelize!.query<{ detail: string }>(`EXPLAIN QUERY PLAN ${UPSERT_OWN_SET}`, { bind, type: QueryTypes.SELECT })
+    const details = plan.map((row) => row.detail)
+    expect(details.some((d) => d.includes('USING INDEX set_logs_session_id_position (session_id=?)'))).toBe(true)
+    expect(details.some((d) => d.includes('set_logs_exercise_id'))).toBe(false)
+    expect(details.some((d) => /^SCAN /.test(d))).toBe(false)
   })
 })
