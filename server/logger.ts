@@ -16,6 +16,21 @@ export const REDACTED_PATHS = [
   'req.query.sig',
 ]
 
-export function createLogger(config: Pick<AppConfig, 'logLevel'>, destination?: NodeJS.WritableStream): Logger {
-  return pino({ level: config.logLevel, redact: { paths: REDACTED_PATHS, censor: '[redacted]' } }, destination as never)
+/** How long a buffered production log line may wait before it is written. */
+export const LOG_FLUSH_MS = 1000
+
+/**
+ * In production, lines go to standard output in writes of up to 4 KB from a buffer (pino's
+ * asynchronous destination), flushed at least every LOG_FLUSH_MS and when the process exits: one
+ * write per request was about a sixth of a set log's CPU time in the benchmark's profile.
+ * Elsewhere every line is written at once.
+ */
+export function createLogger(config: Pick<AppConfig, 'logLevel'> & { env?: AppConfig['env'] }, destination?: NodeJS.WritableStream): Logger {
+  let out: NodeJS.WritableStream | undefined = destination
+  if (!out && config.env === 'production') {
+    const buffered = pino.destination({ dest: 1, sync: false, minLength: 4096 })
+    setInterval(() => buffered.flush(), LOG_FLUSH_MS).unref()
+    out = buffered as unknown as NodeJS.WritableStream
+  }
+  return pino({ level: config.logLevel, redact: { paths: REDACTED_PATHS, censor: '[redacted]' } }, out as never)
 }

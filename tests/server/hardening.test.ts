@@ -1,9 +1,10 @@
+import { spawn } from 'node:child_process'
 import { Writable } from 'node:stream'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { createApp } from '../../server/app'
 import { UserModel } from '../../server/db'
-import { createLogger } from '../../server/logger'
+import { createLogger, LOG_FLUSH_MS } from '../../server/logger'
 import { loopbackOnly } from '../../server/routes/dev.routes'
 import { createTestApp, TEST_PASSWORD, type TestApp } from '../helpers/test-app'
 
@@ -74,7 +75,34 @@ describe('logs and errors', () => {
     expect(text).toContain('/api/me')
     expect(text).not.toContain(TEST_PASSWORD)
     expect(text).not.toContain(token)
+    // One short line per request: method, path, status and time, no headers.
+    const me = lines.map((l) => JSON.parse(l)).find((l) => l.req?.url === '/api/me')
+    expect(me.req).toEqual({ method: 'GET', url: '/api/me' })
+    expect(me.res).toEqual({ statusCode: 200 })
+    expect(typeof me.responseTime).toBe('number')
   })
+
+  it('in production, buffers log lines but writes each within a second, and the rest on exit', async () => {
+    const script = [
+      "import { createLogger, LOG_FLUSH_MS } from './server/logger'",
+      "const log = createLogger({ logLevel: 'info', env: 'production' })",
+      "log.info('first line')",
+      // Alive well past the flush interval, then a last line just before a normal exit.
+      "setTimeout(() => { log.info('last line'); process.exit(0) }, LOG_FLUSH_MS * 3)",
+    ].join('\n')
+    const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { cwd: process.cwd(), stdio: ['ignore', 'pipe', 'inherit'] })
+    const started = Date.now()
+    const arrivals: Array<{ msg: string; afterMs: number }> = []
+    child.stdout.setEncoding('utf8')
+    child.stdout.on('data', (chunk: string) => {
+      for (const line of chunk.split('\n').filter(Boolean)) arrivals.push({ msg: JSON.parse(line).msg, afterMs: Date.now() - started })
+    })
+    const code = await new Promise((resolve) => child.on('exit', resolve))
+    expect(code).toBe(0)
+    expect(arrivals.map((a) => a.msg)).toEqual(['first line', 'last line'])
+    // The first line came out while the process was still running, not only at its exit.
+    expect(arrivals[0]!.afterMs).toBeLessThan(arrivals[1]!.afterMs - LOG_FLUSH_MS / 2)
+  }, 30_000)
 
   it('answers an unexpected failure with a plain 500: no stack trace, no SQL', async () => {
     const { auth } = await t.userWithToken('lifter')
