@@ -1,17 +1,19 @@
-import { z } from 'zod'
-import {
-  authResponseSchema,
-  userSchema,
-  type AuthResponse,
-  type ChangePasswordInput,
-  type RegisterInput,
-  type SignInInput,
-  type UpdateProfileInput,
-  type User,
+import type {
+  AuthResponse,
+  ChangePasswordInput,
+  RegisterInput,
+  SignInInput,
+  UpdateProfileInput,
+  User,
 } from '@shared/schemas/auth.schema'
 import { request } from './client'
 
-const userEnvelopeSchema = z.object({ user: userSchema })
+// The session store (on every page's start-up path) uses this module: the schemas load with
+// the request that needs them, never at start-up (see client.ts).
+const authSchemas = () => import('@shared/schemas/auth.schema')
+const authResponseSchema = () => authSchemas().then((m) => m.authResponseSchema)
+/** `{ user }`: the auth response's user part, the same shared user schema. */
+const userEnvelopeSchema = () => authSchemas().then((m) => m.authResponseSchema.pick({ user: true }))
 
 export function register(input: RegisterInput): Promise<AuthResponse> {
   return request('POST', '/auth/register', { body: input, schema: authResponseSchema })

@@ -1,5 +1,5 @@
 import type { ZodType } from 'zod'
-import { apiErrorBodySchema, type ApiErrorBody } from '@shared/schemas/common.schema'
+import type { ApiErrorBody } from '@shared/schemas/common.schema'
 
 export type HttpMethod = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
 export type ApiIssue = NonNullable<ApiErrorBody['error']['issues']>[number]
@@ -23,9 +23,19 @@ export interface RequestOptions<T> {
   /** JSON-serialisable data, or a FormData for a multipart upload. */
   body?: unknown
   query?: Record<string, string | number | boolean | null | undefined>
-  /** Validates the response body; a mismatch throws an ApiError with code 'bad_response'. */
-  schema?: ZodType<T>
+  /**
+   * Validates the response body; a mismatch throws an ApiError with code 'bad_response'.
+   * May be a loader (`() => import('@shared/schemas/x.schema').then((m) => m.xSchema)`): it is
+   * started together with the request, so building the schema (zod's work) overlaps the network
+   * wait instead of running on the app's start-up path.
+   */
+  schema?: SchemaOrLoader<T>
 }
+
+export type SchemaOrLoader<T> = ZodType<T> | (() => Promise<ZodType<T>>)
+
+/** The error body's schema, built the first time an error answer needs it. */
+const loadErrorBodySchema = () => import('@shared/schemas/common.schema').then((m) => m.apiErrorBodySchema)
 
 let authToken: string | null = null
 
@@ -53,8 +63,9 @@ async function readJson(response: Response): Promise<unknown> {
   }
 }
 
-function toApiError(status: number, body: unknown, statusText: string): ApiError {
-  const parsed = apiErrorBodySchema.safeParse(body)
+async function toApiError(status: number, body: unknown, statusText: string): Promise<ApiError> {
+  const schema = await loadErrorBodySchema().catch(() => null)
+  const parsed = schema ? schema.safeParse(body) : { success: false as const }
   if (parsed.success) {
     const { code, message, issues } = parsed.data.error
     return new ApiError(status, code, message, issues ?? [])
@@ -73,6 +84,9 @@ export async function request<T = unknown>(
   const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData
   if (options.body !== undefined && !isForm) headers['Content-Type'] = 'application/json'
   if (authToken) headers.Authorization = `Bearer ${authToken}`
+  const schema = typeof options.schema === 'function' ? options.schema() : options.schema
+  // A loader that fails (its chunk could not be fetched) is reported once the answer is read.
+  if (schema instanceof Promise) schema.catch(() => {})
 
   let response: Response
   try {
@@ -86,10 +100,16 @@ export async function request<T = unknown>(
   }
 
   const body = await readJson(response)
-  if (!response.ok) throw toApiError(response.status, body, response.statusText)
-  if (!options.schema) return body as T
+  if (!response.ok) throw await toApiError(response.status, body, response.statusText)
+  if (!schema) return body as T
 
-  const parsed = options.schema.safeParse(body)
+  let checker: ZodType<T>
+  try {
+    checker = await schema
+  } catch {
+    throw new ApiError(0, 'network_error', 'No connection to the server. Check your signal and try again.')
+  }
+  const parsed = checker.safeParse(body)
   if (!parsed.success) {
     throw new ApiError(response.status, 'bad_response', 'The server sent an answer this app does not understand.')
   }
@@ -111,7 +131,7 @@ export async function requestBlob(path: string, query?: RequestOptions<unknown>[
   } catch {
     throw new ApiError(0, 'network_error', 'No connection to the server. Check your signal and try again.')
   }
-  if (!response.ok) throw toApiError(response.status, await readJson(response), response.statusText)
+  if (!response.ok) throw await toApiError(response.status, await readJson(response), response.statusText)
   const disposition = response.headers.get('Content-Disposition') ?? ''
   const filename = /filename="?([^";]+)"?/.exec(disposition)?.[1] ?? null
   return { blob: await response.blob(), filename }

@@ -83,6 +83,34 @@ describe('api/client request()', () => {
     expect(failure).toMatchObject({ code: 'bad_response' })
   })
 
+  it('checks the answer with a schema given as a loader, which starts before the answer arrives', async () => {
+    let loaderStartedBeforeFetch = false
+    let loaderCalled = false
+    vi.stubGlobal('fetch', vi.fn(async () => {
+      loaderStartedBeforeFetch = loaderCalled
+      return new Response(JSON.stringify({ token: 42 }), { status: 200 })
+    }))
+    const loader = () => {
+      loaderCalled = true
+      return Promise.resolve(z.object({ token: z.string() }))
+    }
+
+    const failure = await request('GET', '/x', { schema: loader }).catch((e: unknown) => e)
+
+    expect(loaderStartedBeforeFetch).toBe(true)
+    expect(failure).toMatchObject({ code: 'bad_response' })
+    stubFetch({ status: 200, body: { token: 'tok' } })
+    await expect(request('GET', '/x', { schema: loader })).resolves.toEqual({ token: 'tok' })
+  })
+
+  it('reports a schema loader that fails (its file could not be fetched) as a network error', async () => {
+    stubFetch({ status: 200, body: { token: 'tok' } })
+
+    const failure = await request('GET', '/x', { schema: () => Promise.reject(new TypeError('Failed to fetch dynamically imported module')) }).catch((e: unknown) => e)
+
+    expect(failure).toMatchObject({ status: 0, code: 'network_error' })
+  })
+
   it('reports a dropped connection as an ApiError with status 0', async () => {
     vi.stubGlobal('fetch', vi.fn().mockRejectedValue(new TypeError('Failed to fetch')))
 

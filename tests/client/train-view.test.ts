@@ -58,6 +58,8 @@ const pushDay: Today = {
 async function mountTrain() {
   const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
   await flushPromises()
+  // The answer's schema loads beside the request (src/api/client.ts): wait for the loading state to end.
+  await vi.waitFor(() => expect(wrapper.find('.van-skeleton').exists()).toBe(false))
   return wrapper
 }
 
@@ -174,6 +176,6 @@ describe('TrainView', () => {
     await flushPromises()
 
     expect(requests).toHaveLength(2)
-    expect(wrapper.text()).toContain('Push · version I')
+    await vi.waitFor(() => expect(wrapper.text()).toContain('Push · version I'))
   })
 })

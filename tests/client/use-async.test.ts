@@ -49,6 +49,8 @@ describe('useAsync', () => {
     const { data, loading, error } = mountWith(getToday)
     expect(loading.value).toBe(true)
     await flushPromises()
+    // The answer's schema loads beside the request (src/api/client.ts).
+    await vi.waitFor(() => expect(loading.value).toBe(false))
 
     expect(data.value).toEqual(today)
     expect(loading.value).toBe(false)
@@ -59,8 +61,7 @@ describe('useAsync', () => {
     stubFetch({ status: 500, body: { error: { code: 'internal', message: 'Server error' } } }, { status: 200, body: { plan: null, day: null, planDays: [], nextTraining: null, inProgressSessionId: null, lastSession: null } })
 
     const { data, error, refresh } = mountWith(getToday)
-    await flushPromises()
-    expect(error.value).toMatchObject({ status: 500 })
+    await vi.waitFor(() => expect(error.value).toMatchObject({ status: 500 }))
 
     await refresh()
     expect(error.value).toBeUndefined()
