@@ -4,13 +4,18 @@ import type { ZodType } from 'zod'
 /**
  * A zod schema as a Vant field rule: the field is valid when the schema accepts its value,
  * otherwise Vant shows the schema's first message under the field.
+ *
+ * The schema may come from a loader (`() => import('@shared/schemas/x.schema').then(...)`), so a
+ * form on the app's first screen does not build zod schemas before it is drawn; the rule then
+ * answers with a promise (Vant waits for it).
  */
-export function zodRule(schema: ZodType, trigger: FieldRule['trigger'] = 'onSubmit'): FieldRule {
+export function zodRule(schema: ZodType | (() => Promise<ZodType>), trigger: FieldRule['trigger'] = 'onSubmit'): FieldRule {
+  const check = (checker: ZodType, value: unknown) => {
+    const result = checker.safeParse(value)
+    return result.success ? true : (result.error.issues[0]?.message ?? 'Check this field')
+  }
   return {
     trigger,
-    validator: (value: unknown) => {
-      const result = schema.safeParse(value)
-      return result.success ? true : (result.error.issues[0]?.message ?? 'Check this field')
-    },
+    validator: (value: unknown) => (typeof schema === 'function' ? schema().then((s) => check(s, value)) : check(schema, value)),
   }
 }
