@@ -3,6 +3,7 @@ import { dirname } from 'node:path'
 import { Sequelize, type Transaction } from 'sequelize'
 import { makeConcurrencySafe } from './sqlite-concurrency'
 import { cacheTableInfo } from './sqlite-table-info-cache'
+import { prepared, rowToModel } from './statement-pool'
 import { ClubModel, CoachAthleteModel, InviteModel, UserModel, BodyWeightModel, PasswordResetModel } from './models/user.model'
 import { EquipmentProfileModel, ExerciseModel } from './models/exercise.model'
 import { AssignmentModel, DayVersionModel, PlanDayModel, PlanModel, SlotModel } from './models/plan.model'
@@ -101,4 +102,13 @@ export async function openDatabase(storage: string, options: { logging?: (sql: s
  */
 export async function enlargePageCache(sequelize: Sequelize, transaction: Transaction, mebibytes: number) {
   await sequelize.query(`PRAGMA cache_size = ${-Math.round(mebibytes * 1024)}`, { transaction })
+}
+
+/**
+ * The user a sign-in token names, read with a prepared statement: the one read every
+ * authenticated request makes (see statement-pool.ts).
+ */
+export async function findUserForToken(id: number): Promise<UserModel | null> {
+  const rows = await prepared(UserModel.sequelize!, 'SELECT * FROM users WHERE id = $id').all({ id })
+  return rows[0] ? rowToModel(UserModel, rows[0]) : null
 }

@@ -1,6 +1,7 @@
-import { QueryTypes, type Sequelize } from 'sequelize'
+import type { Sequelize } from 'sequelize'
 import type { LogSetInput } from '@shared/schemas/run.schema'
 import { writeWithOthers } from './sqlite-concurrency'
+import { prepared } from './statement-pool'
 
 /**
  * The common set log as one statement on the main connection: a set of an exercise already in
@@ -65,8 +66,6 @@ export async function upsertOwnSetLog(
     editedAt: asStoredDate(new Date(input.editedAt)),
     now: asStoredDate(new Date()),
   }
-  const [, changes] = await writeWithOthers(sequelize, () =>
-    sequelize.query(UPSERT_OWN_SET, { bind, type: QueryTypes.INSERT }),
-  )
+  const changes = await writeWithOthers(sequelize, () => prepared(sequelize, UPSERT_OWN_SET).run(bind))
   return changes === 1
 }

@@ -1,7 +1,7 @@
 import type { RequestHandler } from 'express'
 import type { Role } from '@shared/schemas/common.schema'
 import type { AppConfig } from '../config'
-import { UserModel } from '../db'
+import { findUserForToken, UserModel } from '../db'
 import { AppError } from '../errors'
 import { verifyToken } from '../services/token.service'
 
@@ -22,7 +22,7 @@ export const authenticate: RequestHandler = async (req, res, next) => {
   if (!match) throw AppError.unauthenticated()
   const config = req.app.locals.config as AppConfig
   const { userId, version } = verifyToken(config, match[1])
-  const user = await UserModel.findByPk(userId)
+  const user = await findUserForToken(userId)
   if (!user || user.tokenVersion !== version) throw new AppError(401, 'invalid_token', 'Sign in again')
   if (!user.active) throw new AppError(401, 'account_disabled', 'This account is switched off')
   res.locals.user = user

@@ -4,6 +4,7 @@ import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { createApp } from '../../server/app'
 import { UserModel } from '../../server/db'
+import { PreparedStatement } from '../../server/db/statement-pool'
 import { createLogger, LOG_FLUSH_MS } from '../../server/logger'
 import { loopbackOnly } from '../../server/routes/dev.routes'
 import { createTestApp, TEST_PASSWORD, type TestApp } from '../helpers/test-app'
@@ -106,7 +107,8 @@ describe('logs and errors', () => {
 
   it('answers an unexpected failure with a plain 500: no stack trace, no SQL', async () => {
     const { auth } = await t.userWithToken('lifter')
-    const spy = vi.spyOn(UserModel, 'findByPk').mockRejectedValueOnce(new Error('SQLITE_ERROR: no such column: users.secret_sauce (SELECT * FROM users)'))
+    // The sign-in check's read (a prepared statement) fails as SQLite would.
+    const spy = vi.spyOn(PreparedStatement.prototype, 'all').mockRejectedValueOnce(new Error('SQLITE_ERROR: no such column: users.secret_sauce (SELECT * FROM users)'))
     const res = await request(t.app).get('/api/me').set(auth)
     spy.mockRestore()
     expect(res.status).toBe(500)
