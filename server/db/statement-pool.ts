@@ -28,9 +28,7 @@ export class PreparedStatement {
   constructor(
     private readonly sequelize: Sequelize,
     private readonly sql: string,
-  ) {
-    registerForClose(sequelize, this)
-  }
+  ) {}
 
   /** Every row, with SQLite's own values (snake_case columns, dates as text, booleans as 0/1). */
   async all(params: Record<string, unknown>): Promise<Record<string, unknown>[]> {
@@ -99,32 +97,27 @@ function bindable(params: Record<string, unknown>) {
   return Object.fromEntries(Object.entries(params).map(([k, v]) => [`$${k}`, v]))
 }
 
-const statementsOf = new WeakMap<Sequelize, Set<PreparedStatement>>()
 const bySql = new WeakMap<Sequelize, Map<string, PreparedStatement>>()
 
-/** The prepared statement for `sql` on this database, made on first use. */
+/**
+ * The prepared statement for `sql` on this database, made on first use. The first one made on
+ * a database also makes its `close()` finalize them all before Sequelize closes the connections.
+ */
 export function prepared(sequelize: Sequelize, sql: string): PreparedStatement {
   let statements = bySql.get(sequelize)
-  if (!statements) bySql.set(sequelize, (statements = new Map()))
+  if (!statements) {
+    const all = new Map<string, PreparedStatement>()
+    bySql.set(sequelize, all)
+    const close = sequelize.close.bind(sequelize)
+    sequelize.close = async () => {
+      await Promise.all([...all.values()].map((s) => s.close()))
+      return close()
+    }
+    statements = all
+  }
   let statement = statements.get(sql)
   if (!statement) statements.set(sql, (statement = new PreparedStatement(sequelize, sql)))
   return statement
-}
-
-/** Finalizes a database's prepared statements before Sequelize closes its connections. */
-function registerForClose(sequelize: Sequelize, statement: PreparedStatement) {
-  let statements = statementsOf.get(sequelize)
-  if (!statements) {
-    const set = new Set<PreparedStatement>()
-    statementsOf.set(sequelize, set)
-    const close = sequelize.close.bind(sequelize)
-    sequelize.close = async () => {
-      await Promise.all([...set].map((s) => s.close()))
-      return close()
-    }
-    statements = set
-  }
-  statements.add(statement)
 }
 
 /**
