@@ -91,7 +91,7 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'jsdom', setupFiles: ['tests/client/helpers/indexeddb-setup.ts'] },
+        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'jsdom', setupFiles: ['tests/client/helpers/indexeddb-setup.ts', 'tests/client/helpers/lazy-schemas-setup.ts'] },
       },
       {
         extends: true,

@@ -1,25 +1,24 @@
-import { z } from 'zod'
-import {
-  runSessionSchema,
-  runSetSchema,
-  sessionReportSchema,
-  type AddExerciseInput,
-  type LogSetInput,
-  type RunSession,
-  type RunSet,
-  type SessionReport,
-  type StartSessionInput,
-  type SwapExerciseInput,
-  type TakeNextStepsInput,
+import type {
+  AddExerciseInput,
+  LogSetInput,
+  RunSession,
+  RunSet,
+  SessionReport,
+  StartSessionInput,
+  SwapExerciseInput,
+  TakeNextStepsInput,
 } from '@shared/schemas/run.schema'
 import { request } from './client'
 
 /** The session runner's endpoints: start, read, log sets, swap, add, finish, take next steps. */
 
-const sessionEnvelope = z.object({ session: runSessionSchema })
-const currentEnvelope = z.object({ session: runSessionSchema.nullable() })
-const loggedSetSchema = z.object({ set: runSetSchema, updated: z.array(runSetSchema) })
-const reportEnvelope = z.object({ report: sessionReportSchema })
+// The runner's store is on the app's start-up path: its answer schemas (zod's work, tens of ms on
+// a slow phone) are built on the first request that needs them, beside that request (client.ts).
+const envelopes = () => import('./run.envelopes')
+const sessionEnvelope = () => envelopes().then((m) => m.sessionEnvelope)
+const currentEnvelope = () => envelopes().then((m) => m.currentEnvelope)
+const loggedSetSchema = () => envelopes().then((m) => m.loggedSetSchema)
+const reportEnvelope = () => envelopes().then((m) => m.reportEnvelope)
 
 /** The lifter's calendar day and clock offset, so the server picks the right day of the split. */
 export interface LocalDay {
