@@ -9,7 +9,7 @@ import { apiRouter } from './routes'
 import { devRoutes } from './routes/dev.routes'
 import { createLogger } from './logger'
 import { securityHeaders } from './middleware/security'
-import { pinoHttp } from 'pino-http'
+import { requestLog } from './middleware/request-log'
 import type { Logger } from 'pino'
 import { LocalDiskStorage, type UploadStorage } from './storage/upload-storage'
 
@@ -31,11 +31,7 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   const logger = deps.logger ?? createLogger(config)
   app.locals.logger = logger
   // One log line per request: method, path, status, time; never bodies, tokens or cookies.
-  app.use(pinoHttp({ logger, quietReqLogger: true, serializers: {
-    req: (req) => ({ method: req.method, url: req.url?.replace(/sig=[^&]+/, 'sig=[redacted]') }),
-    // The status only: the default wrote every response header (a 1 KB security policy) on every line.
-    res: (res) => ({ statusCode: res.statusCode }),
-  } }))
+  app.use(requestLog(logger))
   app.use(securityHeaders())
   // gzip or brotli for the client's files and the bigger JSON answers (a phone on a weak gym signal
   // pays for every byte); answers under 1 KB go as they are.

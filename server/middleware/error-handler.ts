@@ -1,6 +1,8 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
+import type { Logger } from 'pino'
 import { ZodError } from 'zod'
 import { AppError } from '../errors'
+import { loggedUrl } from './request-log'
 import { toFieldIssues } from './validate'
 
 export const notFound: RequestHandler = (req, _res, next) => {
@@ -23,7 +25,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     error = new AppError(err.status, 'bad_request', String(err.message))
   } else {
     // Logged in full on the server (structured, with no request body); the client gets no details.
-    req.log?.error({ err }, 'request failed')
+    (req.app.locals.logger as Logger | undefined)?.error({ err, req: { method: req.method, url: loggedUrl(req.originalUrl) } }, 'request failed')
     error = new AppError(500, 'internal', 'Something went wrong on our side')
   }
   res.status(error.status).json({
