@@ -1,7 +1,7 @@
 import { computed, onScopeDispose, ref, toRaw, watch } from 'vue'
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { useEventListener } from '@vueuse/core'
-import { backoffTarget } from '@shared/domain/schemes'
+import type { backoffTarget as BackoffTarget } from '@shared/domain/schemes'
 import type { SlotRole } from '@shared/schemas/train.schema'
 import type { LogSetInput, RunExercise, RunSession, RunSet, SessionReport, StartSessionInput } from '@shared/schemas/run.schema'
 import { ApiError } from '@/api/client'
@@ -18,6 +18,23 @@ import { afterNextPaint } from '@/offline/after-paint'
 import { changesFromLegacy, readLegacyRunData, removeLegacyRunData, type LegacyRunData } from '@/offline/legacy-run-storage'
 import { localDay } from '@/utils/dates'
 import { newUuid } from '@/utils/uuid'
+
+// The training engine validates its inputs with zod: with it, the engine would be a fifth of the
+// app's start-up script, on every screen. The store loads it when a session is there to run
+// (before its first set can be logged) and uses it only for the instant back-off preview.
+let backoffTarget: typeof BackoffTarget | null = null
+let engineLoad: Promise<void> | null = null
+function loadEngine(): Promise<void> {
+  engineLoad ??= import('@shared/domain/schemes').then(
+    (engine) => {
+      backoffTarget = engine.backoffTarget
+    },
+    () => {
+      engineLoad = null // offline before the file was cached: the server's answer re-targets instead
+    },
+  )
+  return engineLoad
+}
 
 /**
  * The session in progress on this device: its sets, the current set, the rest clock and the
@@ -100,6 +117,13 @@ function measureOutboxCommit(start: number) {
 
 export const useRunStore = defineStore('run', () => {
   const session = ref<RunSession | null>(null)
+  // A session to run: load the engine now, while the lifter reads the first set card.
+  watch(
+    () => session.value !== null,
+    (running) => {
+      if (running) void loadEngine()
+    },
+  )
   const jumpSetId = ref<string | null>(null)
   const rest = ref<RestClockState | null>(null)
   /** The outbox in sending order (the same entries as on the device, plus any not yet written). */
@@ -537,15 +561,22 @@ export const useRunStore = defineStore('run', () => {
   }
 
   /** Instant back-off preview from what the top set did (the server recomputes the same on its PUT). */
-  function previewBackoffs(top: RunSet) {
-    const exercise = exerciseOf(top)
-    if (!exercise || top.loadKg === null || !top.reps || top.skipped) return
+  function previewBackoffs(logged: RunSet) {
+    const computeBackoff = backoffTarget
+    if (!computeBackoff) {
+      // Only if a top set is logged before the engine has loaded: preview it as soon as it has.
+      void loadEngine().then(() => backoffTarget && previewBackoffs(logged))
+      return
+    }
+    const top = session.value?.sets.find((s) => s.id === logged.id)
+    const exercise = top && exerciseOf(top)
+    if (!top || !exercise || top.loadKg === null || !top.reps || top.skipped) return
     session.value = {
       ...session.value!,
       sets: session.value!.sets.map((s) => {
         if (!sameBlock(s, top) || s.kind !== 'backoff' || !isOpen(s) || s.targetRepsMin === null || s.targetRepsMax === null) return s
         try {
-          const target = backoffTarget({
+          const target = computeBackoff({
             topLoadKg: top.loadKg!, topReps: top.reps!, topRir: top.failure ? 0 : (top.rir ?? 0),
             repsMin: s.targetRepsMin, repsMax: s.targetRepsMax, equipment: exercise.equipment,
           })

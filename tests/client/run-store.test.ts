@@ -134,16 +134,23 @@ describe('run store', () => {
     expect(run.rest).toEqual({ endsAt: NOW.getTime() + 180_000, durationSec: 180 })
   })
 
-  it('previews the back-off target from what the top set did, with the engine', () => {
+  it('previews the back-off target from what the top set did, with the engine', async () => {
     stubFetch()
     const run = storeWithSession()
     const [, , top, backoff] = run.sets
 
+    // Logged at once: the engine is loaded when a session arrives, so the preview may follow it.
     run.logSet(top.id, { loadKg: 105, reps: 9, rir: null, failure: true })
 
     const expected = backoffTarget({ topLoadKg: 105, topReps: 9, topRir: 0, repsMin: 9, repsMax: 12, equipment: KG_COMPETITION_SET })
-    expect(run.sets.find((s) => s.id === backoff.id)!.targetLoadKg).toBe(expected.target.loadKg)
     expect(expected.target.loadKg).not.toBe(85)
+    await vi.waitFor(() => expect(run.sets.find((s) => s.id === backoff.id)!.targetLoadKg).toBe(expected.target.loadKg))
+
+    // Once loaded, a later top set is previewed in the same tick as the tap.
+    run.logSet(top.id, { loadKg: 110, reps: 7, rir: null, failure: true })
+    const again = backoffTarget({ topLoadKg: 110, topReps: 7, topRir: 0, repsMin: 9, repsMax: 12, equipment: KG_COMPETITION_SET })
+    expect(again.target.loadKg).not.toBe(expected.target.loadKg)
+    expect(run.sets.find((s) => s.id === backoff.id)!.targetLoadKg).toBe(again.target.loadKg)
   })
 
   it('keeps a set queued when the network fails and retries later with the same UUID and body', async () => {
