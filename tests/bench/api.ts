@@ -13,7 +13,7 @@ import type { RunSession, RunSet } from '../../shared/schemas/run.schema'
 import { freePort } from '../helpers/server-process'
 import { budget, type BenchContext, type BenchPart } from './bench-types'
 import { largeDatabaseCopy } from './large-db'
-import { pacedLoad, type PacedRequest, type PacedResult } from './paced-load'
+import { pacedLoadInWorker, type PacedRequest, type PacedResult } from './paced-load'
 import { startProductionServer, type ProductionServer } from './production-server'
 
 const CONNECTIONS = 10
@@ -264,8 +264,10 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
     const athleteCount = (await json(await fetch(`${server.baseUrl}/api/athletes`, { headers: authed(world.coachToken) }))).athletes.length
 
     ctx.log(`api: fixed rate ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s, evenly spaced (paced-load.ts)`)
-    const setPaced = await pacedLoad({ name: `PUT a set log, one every ${1000 / FIXED_RATE} ms`, url: server.baseUrl, rate: FIXED_RATE, durationS: FIXED_RATE_DURATION_S, next: nextSetPaced(world) })
-    const barePaced = await pacedLoad({ name: `Bare Express PUT, one every ${1000 / FIXED_RATE} ms`, url: bareUrl, rate: FIXED_RATE, durationS: FIXED_RATE_DURATION_S, next: nextBarePaced(world) })
+    const due = FIXED_RATE * FIXED_RATE_DURATION_S
+    const made = (next: () => PacedRequest) => Array.from({ length: due }, next)
+    const setPaced = await pacedLoadInWorker({ name: `PUT a set log, one every ${1000 / FIXED_RATE} ms`, url: server.baseUrl, rate: FIXED_RATE, durationS: FIXED_RATE_DURATION_S, requests: made(nextSetPaced(world)) })
+    const barePaced = await pacedLoadInWorker({ name: `Bare Express PUT, one every ${1000 / FIXED_RATE} ms`, url: bareUrl, rate: FIXED_RATE, durationS: FIXED_RATE_DURATION_S, requests: made(nextBarePaced(world)) })
 
     ctx.log(`api: fixed rate ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s, autocannon overallRate`)
     const setAtRate = await cannon(`PUT a set log at ${FIXED_RATE} req/s`, {
@@ -299,7 +301,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       `"vs bare": set logging against the bare PUT-with-JSON-body route; GET rows against the bare GET route. Set logging is ${fmt(ratioGet * 100, 0)} % of the bare GET route.`,
       'The budgeted row is "PUT a set log" (a back-off or any set but a top set: one upsert statement). A top set is logged about once per exercise and takes the transactional path. The health row is the same server with no sign-in check and no database: what the middleware every request passes through costs by itself.',
       '',
-      `Fixed rate, ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s, evenly spaced (the budgeted row): request i is sent at start + i × ${1000 / FIXED_RATE} ms whether or not earlier answers are back, over keep-alive connections, and its latency counts from that due moment (\`tests/bench/paced-load.ts\`).`,
+      `Fixed rate, ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s, evenly spaced (the budgeted row): request i is sent at start + i × ${1000 / FIXED_RATE} ms whether or not earlier answers are back, over keep-alive connections, and its latency counts from that due moment (\`tests/bench/paced-load.ts\`, in a worker thread of its own).`,
       '',
       '| Request | req/s | p50 ms | p90 ms | p99 ms | max ms | errors + non-2xx | generator lag, max ms |',
       '|---|---:|---:|---:|---:|---:|---:|---:|',

@@ -1,7 +1,7 @@
 import { createServer, type Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { afterEach, describe, expect, it } from 'vitest'
-import { pacedLoad, percentileOfSorted } from '../bench/paced-load'
+import { pacedLoad, pacedLoadInWorker, percentileOfSorted } from '../bench/paced-load'
 
 let server: Server | undefined
 afterEach(async () => {
@@ -71,4 +71,24 @@ describe('bench/paced-load', () => {
     const result = await pacedLoad({ name: 'failing', url, rate: 50, durationS: 0.2, next: () => ({ method: 'GET', path: '/x' }) })
     expect(result).toMatchObject({ due: 10, completed: 0, failures: 10 })
   })
+  it('runs the same in a worker thread, from requests made beforehand, unhurt by a stall of this thread', async () => {
+    const paths: string[] = []
+    const url = await listen((req, res) => {
+      paths.push(req.url!)
+      req.resume()
+      req.on('end', () => res.end('{}'))
+    })
+    const requests = Array.from({ length: 50 }, (_, i) => ({ method: 'GET', path: `/n/${i}` }))
+    const running = pacedLoadInWorker({ name: 'worker', url, rate: 50, durationS: 1, requests })
+    // This thread (where the server above also runs) stalls for 100 ms once the run is going.
+    await expect.poll(() => paths.length, { timeout: 10_000, interval: 5 }).toBeGreaterThanOrEqual(10)
+    const until = performance.now() + 100
+    while (performance.now() < until);
+    const result = await running
+    expect(result).toMatchObject({ due: 50, completed: 50, failures: 0 })
+    expect(paths).toEqual(requests.map((r) => r.path))
+    // The worker kept sending on time; the answers held up by the stalled server show it.
+    expect(result.maxSendLagMs).toBeLessThan(50)
+    expect(result.maxMs).toBeGreaterThan(60)
+  }, 20_000)
 })
