@@ -46,8 +46,10 @@ export function afterNextPaint(): Promise<void> {
       if (done) return
       done = true
       clearTimeout(fallback)
-      document.removeEventListener('visibilitychange', onHidden)
-      window.removeEventListener('pagehide', finish)
+      // The document may be gone by now (a torn-down test environment; in a browser, never):
+      // the write that waited still goes ahead.
+      if (typeof document !== 'undefined') document.removeEventListener('visibilitychange', onHidden)
+      if (typeof window !== 'undefined') window.removeEventListener('pagehide', finish)
       resolve()
     }
     const onHidden = () => {
