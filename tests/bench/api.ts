@@ -168,18 +168,14 @@ export async function cannon(name: string, options: autocannon.Options): Promise
   return summarise(name, result)
 }
 
+/** A paced request's parts for autocannon, whose request object names its method itself. */
+function withoutMethod({ path, body, headers }: PacedRequest) {
+  return { path, body, headers }
+}
+
 function setPuts(world: ApiWorld): autocannon.Request[] {
-  let turn = 0
-  return [
-    {
-      method: 'PUT',
-      setupRequest: (req) => {
-        const lifter = world.lifters[turn++ % world.lifters.length]!
-        const { path, body } = nextSetRequest(lifter)
-        return { ...req, path, body, headers: authed(lifter.token, {}) }
-      },
-    },
-  ]
+  const next = nextSetPaced(world)
+  return [{ method: 'PUT', setupRequest: (req) => ({ ...req, ...withoutMethod(next()) }) }]
 }
 
 function topSetPuts(world: ApiWorld): autocannon.Request[] {
@@ -199,15 +195,8 @@ function topSetPuts(world: ApiWorld): autocannon.Request[] {
 }
 
 function barePuts(world: ApiWorld): autocannon.Request[] {
-  return [
-    {
-      method: 'PUT',
-      setupRequest: (req) => {
-        const { body } = nextSetRequest(world.lifters[0]!)
-        return { ...req, path: `/bare/${randomUUID()}`, body, headers: { 'Content-Type': 'application/json' } }
-      },
-    },
-  ]
+  const next = nextBarePaced(world)
+  return [{ method: 'PUT', setupRequest: (req) => ({ ...req, ...withoutMethod(next()) }) }]
 }
 
 function todayGets(world: ApiWorld): autocannon.Request[] {

@@ -58,3 +58,9 @@ export function median(values: number[]): number {
   const mid = sorted.length >> 1
   return sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2
 }
+
+/** Nearest-rank percentile of values already sorted ascending: the smallest with at least p % at or below it. */
+export function percentileOfSorted(sorted: readonly number[], p: number): number {
+  if (sorted.length === 0) return Number.NaN
+  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))]!
+}

@@ -23,7 +23,7 @@ import { join } from 'node:path'
 import type { Browser, BrowserContext, CDPSession, Page, Route } from 'playwright-core'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
 import { launchChromium, signInThroughForm } from '../helpers/browser'
-import { budget, median, type BenchContext, type BenchPart } from './bench-types'
+import { budget, median, percentileOfSorted, type BenchContext, type BenchPart } from './bench-types'
 import { isMainModule, runAlone, startBuiltServer, startOrResumeSession } from './built-server'
 
 const TAPS = 50
@@ -49,17 +49,11 @@ interface Stats {
   minMs: number
 }
 
-/** Nearest-rank percentile. */
-function percentile(values: number[], p: number): number {
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))]!
-}
-
 function stats(samples: number[]): Stats {
   return {
     taps: samples.length,
     medianMs: median(samples),
-    p90Ms: percentile(samples, 90),
+    p90Ms: percentileOfSorted([...samples].sort((a, b) => a - b), 90),
     maxMs: Math.max(...samples),
     minMs: Math.min(...samples),
   }

@@ -13,6 +13,7 @@
  * which is 1 ms for any rate, so an answer of L ms is recorded about L times.
  */
 import http from 'node:http'
+import { percentileOfSorted } from './bench-types'
 
 export interface PacedRequest {
   method: string
@@ -36,12 +37,6 @@ export interface PacedResult {
   maxMs: number
   /** The largest delay between a request's due moment and its sending (this process's own lag). */
   maxSendLagMs: number
-}
-
-/** Nearest-rank percentile of sorted values. */
-export function percentileOfSorted(sorted: readonly number[], p: number): number {
-  if (sorted.length === 0) return Number.NaN
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))]!
 }
 
 export async function pacedLoad(opts: {

@@ -1,7 +1,8 @@
 import { createServer, type Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { afterEach, describe, expect, it } from 'vitest'
-import { pacedLoad, pacedLoadInWorker, percentileOfSorted } from '../bench/paced-load'
+import { percentileOfSorted } from '../bench/bench-types'
+import { pacedLoad, pacedLoadInWorker } from '../bench/paced-load'
 
 let server: Server | undefined
 afterEach(async () => {
