@@ -6,6 +6,7 @@ import type { AthleteRow } from '@shared/schemas/athlete.schema'
 import {
   AssignmentModel, CoachAthleteModel, ExerciseModel, PlanDayModel, PlanModel, SessionModel, SetLogModel, UserModel,
 } from '../db'
+import { isoFromStored } from '../db/stored-values'
 
 const DAY_MS = 24 * 60 * 60 * 1000
 const ADHERENCE_DAYS = 28
@@ -25,13 +26,25 @@ interface TrendRow {
   exercise: { name: string | null } | null
 }
 
-/** A date from a raw row: SQLite keeps Sequelize's dates as "YYYY-MM-DD HH:MM:SS.SSS +00:00". */
-function isoFromStored(value: string | Date): string {
-  if (value instanceof Date) return value.toISOString()
-  const m = /^(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2}:\d{2}(?:\.\d+)?) ?([+-]\d{2}:\d{2}|Z)?$/.exec(value)
-  const date = new Date(m ? `${m[1]}T${m[2]}${m[3] ?? 'Z'}` : value)
-  if (Number.isNaN(date.getTime())) throw new Error(`unreadable stored date: ${value}`)
-  return date.toISOString()
+interface RecentRow {
+  athleteId: number
+  completedAt: string | Date
+  /** JSON text in a raw row. */
+  summary: string | { flags?: ReviewFlag[] } | null
+}
+
+function storedSummary(value: RecentRow['summary']): { flags?: ReviewFlag[] } | null {
+  return typeof value === 'string' ? (JSON.parse(value) as { flags?: ReviewFlag[] } | null) : value
+}
+
+function groupBy<T>(rows: T[], key: (row: T) => number): Map<number, T[]> {
+  const groups = new Map<number, T[]>()
+  for (const row of rows) {
+    const group = groups.get(key(row))
+    if (group) group.push(row)
+    else groups.set(key(row), [row])
+  }
+  return groups
 }
 
 export async function listAthletes(coach: UserModel, now = new Date()): Promise<AthleteRow[]> {
@@ -52,10 +65,12 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       group: ['athleteId'],
       raw: true,
     }) as unknown as Promise<Array<{ athleteId: number; lastCompletedAt: string | Date | null }>>,
+    // Plain rows: about ten per athlete, and each model instance's getters cost more than the query.
     SessionModel.findAll({
-      attributes: ['id', 'athleteId', 'completedAt', 'summary'],
+      attributes: ['athleteId', 'completedAt', 'summary'],
       where: { athleteId: athleteIds, status: 'completed', completedAt: { [Op.gte]: since(ADHERENCE_DAYS) } },
-    }),
+      raw: true,
+    }) as unknown as Promise<RecentRow[]>,
     // Completed sessions nobody has reviewed, counted in the database (reviews has an index on session_id).
     SessionModel.findAll({
       attributes: ['athleteId', [fn('COUNT', col('id')), 'count']],
@@ -75,17 +90,18 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       nest: true,
     }) as unknown as Promise<TrendRow[]>,
   ])
-  const trendByAthlete = new Map<number, TrendRow[]>()
-  for (const row of trendSets) {
-    const rows = trendByAthlete.get(row.session.athleteId) ?? []
-    rows.push(row)
-    trendByAthlete.set(row.session.athleteId, rows)
-  }
+  // Each list grouped by athlete once, so building a row does not search every list (153 × 1,600).
+  const trendByAthlete = groupBy(trendSets, (row) => row.session.athleteId)
+  const recentByAthlete = groupBy(recent, (row) => row.athleteId)
+  const assignmentByAthlete = new Map(assignments.map((x) => [x.athleteId, x]))
+  const lastByAthlete = new Map(lastSessions.map((x) => [x.athleteId, x.lastCompletedAt]))
+  const waitingByAthlete = new Map(waiting.map((x) => [x.athleteId, Number(x.count)]))
+  const plateauSince = since(PLATEAU_DAYS).getTime()
 
   return athletes.map((a) => {
-    const assignment = assignments.find((x) => x.athleteId === a.id)
-    const last = lastSessions.find((s) => s.athleteId === a.id)?.lastCompletedAt
-    const mine = recent.filter((s) => s.athleteId === a.id)
+    const assignment = assignmentByAthlete.get(a.id)
+    const last = lastByAthlete.get(a.id)
+    const mine = recentByAthlete.get(a.id) ?? []
     let planned: number | null = null
     if (assignment?.plan) {
       const days = (assignment.plan.days ?? []).map((d) => ({ name: '', isRest: d.isRest, versions: { I: [], II: [] } }))
@@ -95,8 +111,8 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
     const plateauLifts = [
       ...new Set(
         mine
-          .filter((s) => s.completedAt!.getTime() >= since(PLATEAU_DAYS).getTime())
-          .flatMap(((s) => ((s.summary as { flags?: ReviewFlag[] } | null)?.flags ?? []).filter((f) => f.code === 'plateau').map((f) => f.exercise ?? ''))),
+          .filter((s) => Date.parse(isoFromStored(s.completedAt)) >= plateauSince)
+          .flatMap((s) => (storedSummary(s.summary)?.flags ?? []).filter((f) => f.code === 'plateau').map((f) => f.exercise ?? '')),
       ),
     ].filter(Boolean)
     // Best estimated 1RM per session on each main lift, oldest first.
@@ -127,7 +143,7 @@ export async function listAthletes(coach: UserModel, now = new Date()): Promise<
       plannedLast28Days: planned,
       adherencePct: planned ? Math.round((mine.length / planned) * 100) : null,
       plateauLifts,
-      waitingReview: Number(waiting.find((w) => w.athleteId === a.id)?.count ?? 0),
+      waitingReview: waitingByAthlete.get(a.id) ?? 0,
       e1rmTrend,
     }
   })

@@ -7,6 +7,7 @@ import { setSchemeSchema, type SetScheme, type SlotRole } from '@shared/domain/s
 import {
   EquipmentProfileModel, ExerciseModel, NextStepModel, SessionModel, SetLogModel, type UserModel,
 } from '../db'
+import { isoFromStored } from '../db/stored-values'
 
 /**
  * Reads what the engine needs from the database (the lifter's gym, their recent exposures and
@@ -38,6 +39,21 @@ export interface BlockHistory {
 }
 
 const HISTORY_ROWS = 800
+
+/** A working set of the history query, as a plain row (`failure` is 0 or 1, the date is text). */
+interface HistoryRow {
+  sessionId: number
+  exerciseId: number
+  slotId: number | null
+  kind: SetLogModel['kind']
+  loadKg: number
+  reps: number
+  targetRepsMin: number | null
+  targetRepsMax: number | null
+  rir: number | null
+  failure: number | boolean
+  session: { completedAt: string | Date }
+}
 const EXPOSURES_KEPT = 6
 
 /**
@@ -55,7 +71,10 @@ export async function historyFor(
   const result = new Map<string, BlockHistory>()
   if (blocks.length === 0) return result
   const exerciseIds = [...new Set(blocks.map((b) => b.exerciseId))]
-  const rows = await SetLogModel.findAll({
+  // Plain rows with only what the engine reads: building up to HISTORY_ROWS model instances
+  // (Sequelize maps every column of every row through its parsers) cost most of the request.
+  const rows = (await SetLogModel.findAll({
+    attributes: ['sessionId', 'exerciseId', 'slotId', 'kind', 'loadKg', 'reps', 'targetRepsMin', 'targetRepsMax', 'rir', 'failure'],
     where: {
       exerciseId: exerciseIds,
       kind: { [Op.ne]: 'warmup' },
@@ -68,13 +87,15 @@ export async function historyFor(
       {
         model: SessionModel,
         as: 'session',
-        attributes: ['id', 'completedAt'],
+        attributes: ['completedAt'],
         where: { athleteId, status: 'completed', ...(before ? { completedAt: { [Op.lt]: before } } : {}) },
       },
     ],
     order: [[{ model: SessionModel, as: 'session' }, 'completedAt', 'DESC'], ['position', 'ASC']],
     limit: HISTORY_ROWS,
-  })
+    raw: true,
+    nest: true,
+  })) as unknown as HistoryRow[]
   const steps = await NextStepModel.findAll({
     where: { athleteId, exerciseId: exerciseIds, status: ['taken', 'edited'] },
     order: [['createdAt', 'DESC']],
@@ -91,13 +112,13 @@ export async function historyFor(
     const source = mine.length > 0 ? mine : rows.filter((r) => r.exerciseId === block.exerciseId)
     const bySession = new Map<number, { at: string; sets: PerformedSet[] }>()
     for (const r of source) {
-      const entry = bySession.get(r.sessionId) ?? { at: r.session!.completedAt!.toISOString(), sets: [] }
+      const entry = bySession.get(r.sessionId) ?? { at: isoFromStored(r.session.completedAt), sets: [] }
       entry.sets.push({
         kind: r.kind === 'warmup' ? 'straight' : r.kind,
-        loadKg: r.loadKg!,
-        reps: r.reps!,
-        repsMin: r.targetRepsMin ?? r.reps!,
-        repsMax: r.targetRepsMax ?? r.reps!,
+        loadKg: r.loadKg,
+        reps: r.reps,
+        repsMin: r.targetRepsMin ?? r.reps,
+        repsMax: r.targetRepsMax ?? r.reps,
         rir: r.failure ? 0 : r.rir,
       })
       bySession.set(r.sessionId, entry)
