@@ -9,6 +9,43 @@ import type { AppConfig } from '../config'
  * recorded videos play from blob: addresses before upload.
  */
 export function securityHeaders(): RequestHandler {
+  const headers = fixedHeaders(helmetForApp())
+  const names = Object.keys(headers)
+  // The same headers for every answer: helmet builds them once here instead of per request
+  // (its CSP string alone was rebuilt from the directives on every call).
+  return (_req, res, next) => {
+    for (const name of names) res.setHeader(name, headers[name])
+    res.removeHeader('X-Powered-By')
+    next()
+  }
+}
+
+/**
+ * The headers a helmet middleware sets, read by running it once against a recording response.
+ * Only for helmet options with fixed values (no per-request functions such as CSP nonces).
+ */
+export function fixedHeaders(middleware: RequestHandler): Record<string, string> {
+  const headers: Record<string, string> = {}
+  const res = {
+    setHeader(name: string, value: string | number | string[]) {
+      headers[name] = Array.isArray(value) ? value.join(', ') : String(value)
+      return res
+    },
+    removeHeader(name: string) {
+      delete headers[name]
+    },
+  }
+  let called = false
+  void middleware({} as never, res as never, ((error?: unknown) => {
+    if (error) throw error
+    called = true
+  }) as never)
+  if (!called) throw new Error('the security headers middleware did not finish synchronously')
+  return headers
+}
+
+/** helmet with the app's options, as a per-request middleware (the tests compare against it). */
+export function helmetForApp(): RequestHandler {
   return helmet({
     contentSecurityPolicy: {
       useDefaults: false,

@@ -1,11 +1,13 @@
 import { spawn } from 'node:child_process'
 import { Writable } from 'node:stream'
+import express from 'express'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { createApp } from '../../server/app'
 import { UserModel } from '../../server/db'
 import { PreparedStatement } from '../../server/db/statement-pool'
 import { createLogger, LOG_FLUSH_MS } from '../../server/logger'
+import { fixedHeaders, helmetForApp } from '../../server/middleware/security'
 import { loopbackOnly } from '../../server/routes/dev.routes'
 import { createTestApp, TEST_PASSWORD, type TestApp } from '../helpers/test-app'
 
@@ -28,6 +30,25 @@ describe('security headers', () => {
     expect(csp).not.toMatch(/https?:\/\//) // no other origin anywhere in the policy
     expect(res.headers['x-content-type-options']).toBe('nosniff')
     expect(res.headers['x-powered-by']).toBeUndefined()
+  })
+
+  it('sets exactly the headers helmet itself sets per request with the same options', async () => {
+    // Reference: helmet's own middleware run on every request of a bare Express app.
+    const reference = express()
+    reference.use(helmetForApp())
+    reference.get('/api/health', (_req, res) => {
+      res.json({ ok: true })
+    })
+    const pick = (headers: Record<string, unknown>) =>
+      Object.fromEntries(Object.entries(headers).filter(([name]) => !['date', 'etag', 'content-length', 'connection', 'content-type', 'vary', 'x-request-id'].includes(name)))
+    const ours = pick((await request(t.app).get('/api/health')).headers)
+    const helmets = pick((await request(reference).get('/api/health')).headers)
+    expect(Object.keys(helmets).length).toBeGreaterThan(8)
+    expect(ours).toEqual(helmets)
+  })
+
+  it('refuses a helmet set-up that does not finish at once (headers could not be fixed)', () => {
+    expect(() => fixedHeaders(() => undefined)).toThrow(/did not finish synchronously/)
   })
 })
 
