@@ -8,9 +8,16 @@ import 'vant/es/notify/style'
 import './styles/index.css'
 import './styles/theme.css'
 import App from './App.vue'
-import { createAppRouter } from './router'
+import { startEarlyToday } from './api/train'
+import { createAppRouter, opensOnTrain } from './router'
+import { useSessionStore } from './stores/session'
 
 const app = createApp(App)
 app.use(createPinia())
-app.use(createAppRouter())
+const router = createAppRouter()
+// A lifter kept on the phone opens on Train: today's request goes out now, overlapping the
+// app's start-up work, and the Train screen takes its answer.
+const session = useSessionStore()
+if (session.isSignedIn && session.role === 'lifter' && opensOnTrain(router, window.location.pathname)) startEarlyToday()
+app.use(router)
 app.mount('#app')

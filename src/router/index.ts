@@ -201,6 +201,12 @@ export const routes: NamedRoute[] = [
   { path: '/:pathMatch(.*)*', name: 'not-found', redirect: { name: 'home' } },
 ]
 
+/** Whether this address opens the Train screen (directly, or through the home redirect). */
+export function opensOnTrain(router: Router, path: string): boolean {
+  const name = router.resolve(path).name
+  return name === 'train' || name === 'home'
+}
+
 /** Builds the router with its guards; tests pass a memory history. */
 export function createAppRouter(history: RouterHistory = createWebHistory(import.meta.env.BASE_URL)): Router {
   const router = createRouter({ history, routes })

@@ -1,10 +1,13 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { defineComponent } from 'vue'
 import { flushPromises, mount } from '@vue/test-utils'
 import { createPinia, setActivePinia, type Pinia } from 'pinia'
 import { createMemoryHistory, type Router } from 'vue-router'
 import type { Today } from '@shared/schemas/train.schema'
 import { setAuthToken } from '@/api/client'
-import { createAppRouter } from '@/router'
+import { EARLY_TODAY_MAX_AGE_MS, startEarlyToday, takeEarlyToday } from '@/api/train'
+import { createAppRouter, opensOnTrain } from '@/router'
+import { useToday } from '@/composables/useToday'
 import { useSessionStore } from '@/stores/session'
 import TrainView from '@/views/TrainView.vue'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
@@ -24,6 +27,7 @@ beforeEach(async () => {
 })
 
 afterEach(() => {
+  takeEarlyToday() // no early answer carries over to the next test
   setAuthToken(null)
   vi.unstubAllGlobals()
 })
@@ -177,5 +181,61 @@ describe('TrainView', () => {
 
     expect(requests).toHaveLength(2)
     await vi.waitFor(() => expect(wrapper.text()).toContain('Push · version I'))
+  })
+})
+
+describe("today's request sent at start-up", () => {
+  it('is used by the Train screen instead of a second request', async () => {
+    const { requests } = stubFetch({ status: 200, body: pushDay })
+    startEarlyToday()
+    expect(requests).toHaveLength(1) // sent before any screen mounted
+
+    const wrapper = await mountTrain()
+
+    expect(requests).toHaveLength(1)
+    expect(wrapper.text()).toContain('Bench press')
+  })
+
+  it('is taken once: a refresh asks the server again', async () => {
+    const { requests } = stubFetch({ status: 200, body: pushDay }, { status: 200, body: { ...pushDay, inProgressSessionId: 91 } })
+    startEarlyToday()
+    let today: ReturnType<typeof useToday> | undefined
+    mount(defineComponent({ setup: () => ((today = useToday()), () => null) }), { global: { plugins: [pinia, router] } })
+    await vi.waitFor(() => expect(today!.data.value).toBeDefined())
+    expect(today!.data.value!.inProgressSessionId).toBeNull()
+
+    await today!.refresh()
+
+    expect(requests).toHaveLength(2)
+    expect(today!.data.value!.inProgressSessionId).toBe(91)
+  })
+
+  it('is dropped when it is older than the limit, or from another calendar day', () => {
+    stubFetch({ status: 200, body: pushDay }, { status: 200, body: pushDay })
+    const started = new Date(2026, 11, 1, 23, 59, 55)
+    startEarlyToday(started)
+    expect(takeEarlyToday(new Date(started.getTime() + EARLY_TODAY_MAX_AGE_MS + 1))).toBeNull()
+
+    startEarlyToday(started)
+    expect(takeEarlyToday(new Date(2026, 11, 2, 0, 0, 1))).toBeNull() // past midnight: another day's plan
+
+    startEarlyToday(started)
+    expect(takeEarlyToday(new Date(started.getTime() + 1000))).not.toBeNull()
+    expect(takeEarlyToday(new Date(started.getTime() + 1000))).toBeNull() // taken once
+  })
+
+  it('is sent only for addresses that open on Train', () => {
+    expect(opensOnTrain(router, '/')).toBe(true)
+    expect(opensOnTrain(router, '/train')).toBe(true)
+    expect(opensOnTrain(router, '/logbook')).toBe(false)
+    expect(opensOnTrain(router, '/sign-in')).toBe(false)
+  })
+
+  it('a failed early request shows the usual load error on Train, with no unhandled rejection', async () => {
+    stubFetch({ status: 500, body: { error: { code: 'server_error', message: 'Something went wrong' } } })
+    startEarlyToday()
+    const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
+    await vi.waitFor(() => expect(wrapper.find('.van-skeleton').exists()).toBe(false))
+    expect(wrapper.text()).toMatch(/try again|Something went wrong/i)
   })
 })
