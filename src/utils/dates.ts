@@ -1,15 +1,16 @@
-// Made on first use: the first Intl.DateTimeFormat of a page loads the browser's locale data
-// (70-110 ms measured in Chromium on the bench machine, four times that on a slow phone), and the
-// Train and sign-in screens, which import this module for localDay, never format a day.
-let dayFormat: Intl.DateTimeFormat | undefined
+// Written out rather than through Intl.DateTimeFormat: the app's text is English, and the first
+// Intl formatter of a page loads the browser's locale data (70-110 ms measured in Chromium on the
+// bench machine, four times that on a slow phone), which sat on the Train screen's first paint of
+// today's card ("Last session: ..."). tests/client/dates.test.ts checks the text against Intl's.
+const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat']
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec']
 
-/** "Tue, 1 Dec 2026" for an ISO timestamp; an em dash for none. */
+/** "Tue, Dec 1, 2026" for an ISO timestamp, in the phone's time zone; an em dash for none. */
 export function formatDay(iso: string | null | undefined): string {
   if (!iso) return '—'
   const date = new Date(iso)
   if (Number.isNaN(date.getTime())) return '—'
-  dayFormat ??= new Intl.DateTimeFormat('en', { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' })
-  return dayFormat.format(date)
+  return `${WEEKDAYS[date.getDay()]}, ${MONTHS[date.getMonth()]} ${date.getDate()}, ${date.getFullYear()}`
 }
 
 /** The lifter's local calendar day and Date.getTimezoneOffset(), as the API's date/tzOffset query wants them. */
