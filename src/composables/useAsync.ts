@@ -12,14 +12,15 @@ export interface AsyncData<T> {
 }
 
 /**
- * Loads view data once on setup and again on refresh(). The one place where an expired
+ * Loads view data once on setup and again on refresh(), showing `initial` (a copy kept on the
+ * phone) until the first answer arrives. The one place where an expired
  * session (HTTP 401) is handled: the session is cleared and the user sent to sign in.
  */
-export function useAsync<T>(load: () => Promise<T>): AsyncData<T> {
+export function useAsync<T>(load: () => Promise<T>, options: { initial?: T } = {}): AsyncData<T> {
   const session = useSessionStore()
   const router = useRouter()
 
-  const { state, isLoading, error, execute } = useAsyncState<T | undefined>(load, undefined, {
+  const { state, isLoading, error, execute } = useAsyncState<T | undefined>(load, options.initial, {
     resetOnExecute: false,
     onError(e) {
       if (e instanceof ApiError && e.status === 401) {

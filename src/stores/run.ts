@@ -15,6 +15,7 @@ import {
   type RunnerSnapshot,
 } from '@/offline/device-store'
 import { afterNextPaint } from '@/offline/after-paint'
+import { forgetSavedToday } from '@/offline/saved-today'
 import { changesFromLegacy, readLegacyRunData, removeLegacyRunData, type LegacyRunData } from '@/offline/legacy-run-storage'
 import { localDay } from '@/utils/dates'
 import { newUuid } from '@/utils/uuid'
@@ -392,15 +393,18 @@ export const useRunStore = defineStore('run', () => {
     if (jumpSetId.value && !session.value.sets.some((s) => s.id === jumpSetId.value)) jumpSetId.value = null
   }
 
+  // Starting, resuming and finishing change what Train shows: its copy on the phone goes.
   async function start(input: Partial<StartSessionInput> = {}) {
     await loading
     adopt(await runApi.startSession(input, localDay()))
+    forgetSavedToday()
     return session.value!
   }
 
   async function resume(id: number) {
     await loading
     adopt(await runApi.getRunSession(id))
+    forgetSavedToday()
     return session.value!
   }
 
@@ -693,6 +697,7 @@ export const useRunStore = defineStore('run', () => {
       note: note && note.trim() ? note.trim() : null,
     })
     forget()
+    forgetSavedToday()
     return report
   }
 

@@ -5,6 +5,7 @@ import type { ChangePasswordInput, RegisterInput, SignInInput, UpdateProfileInpu
 import type { Role } from '@shared/schemas/common.schema'
 import * as authApi from '@/api/auth'
 import { setAuthToken } from '@/api/client'
+import { forgetSavedToday } from '@/offline/saved-today'
 
 export const TOKEN_STORAGE_KEY = 'chalkline.token'
 export const USER_STORAGE_KEY = 'chalkline.user'
@@ -33,6 +34,7 @@ export const useSessionStore = defineStore('session', () => {
     token.value = null
     setAuthToken(null)
     user.value = null
+    forgetSavedToday()
   }
 
   async function signIn(input: SignInInput) {

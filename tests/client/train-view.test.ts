@@ -8,6 +8,9 @@ import { setAuthToken } from '@/api/client'
 import { EARLY_TODAY_MAX_AGE_MS, startEarlyToday, takeEarlyToday } from '@/api/train'
 import { createAppRouter, opensOnTrain } from '@/router'
 import { useToday } from '@/composables/useToday'
+import { SAVED_TODAY_KEY, saveToday, savedToday } from '@/offline/saved-today'
+import { useRunStore } from '@/stores/run'
+import { localDay } from '@/utils/dates'
 import { useSessionStore } from '@/stores/session'
 import TrainView from '@/views/TrainView.vue'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
@@ -237,5 +240,92 @@ describe("today's request sent at start-up", () => {
     const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
     await vi.waitFor(() => expect(wrapper.find('.van-skeleton').exists()).toBe(false))
     expect(wrapper.text()).toMatch(/try again|Something went wrong/i)
+  })
+})
+
+describe("today's plan kept on the phone", () => {
+  /** A fetch that answers only when told to: what the screen shows before the server answers. */
+  function heldFetch() {
+    let answer: (reply: { status: number; body: unknown }) => void = () => {}
+    const calls: string[] = []
+    vi.stubGlobal('fetch', vi.fn((input: RequestInfo | URL) => {
+      calls.push(String(input))
+      return new Promise<Response>((resolve) => {
+        answer = (reply) => resolve(new Response(JSON.stringify(reply.body), { status: reply.status, headers: { 'Content-Type': 'application/json' } }))
+      })
+    }))
+    return { calls, answer: (reply: { status: number; body: unknown }) => answer(reply) }
+  }
+
+  it('shows the saved plan at once, then the server\'s answer, which it keeps for next time', async () => {
+    saveToday(buildUser().id, localDay(), pushDay)
+    const held = heldFetch()
+
+    const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
+    await flushPromises()
+    expect(wrapper.find('.van-skeleton').exists()).toBe(false)
+    expect(wrapper.text()).toContain('Bench press') // before any answer
+    expect(held.calls).toHaveLength(1) // and it still asks the server
+
+    const fresh = { ...pushDay, inProgressSessionId: 91 }
+    held.answer({ status: 200, body: fresh })
+    await vi.waitFor(() => expect(wrapper.text()).toContain('Resume session'))
+    expect(savedToday(buildUser().id, localDay())?.inProgressSessionId).toBe(91)
+  })
+
+  it("ignores another lifter's copy, another day's, another format and unreadable text", async () => {
+    const day = localDay()
+    saveToday(buildUser().id + 1, day, pushDay)
+    expect(savedToday(buildUser().id, day)).toBeNull()
+    saveToday(buildUser().id, { ...day, date: '2020-01-01' }, pushDay)
+    expect(savedToday(buildUser().id, day)).toBeNull()
+    saveToday(buildUser().id, { ...day, tzOffset: day.tzOffset + 60 }, pushDay)
+    expect(savedToday(buildUser().id, day)).toBeNull()
+    localStorage.setItem(SAVED_TODAY_KEY, JSON.stringify({ format: 99, userId: buildUser().id, ...day, today: pushDay }))
+    expect(savedToday(buildUser().id, day)).toBeNull()
+    localStorage.setItem(SAVED_TODAY_KEY, '{not json')
+    expect(savedToday(buildUser().id, day)).toBeNull()
+    localStorage.setItem(SAVED_TODAY_KEY, JSON.stringify({ format: 1, userId: buildUser().id, ...day, today: { plan: null } }))
+    expect(savedToday(buildUser().id, day)).toBeNull()
+
+    heldFetch()
+    const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
+    await flushPromises()
+    expect(wrapper.find('.van-skeleton').exists()).toBe(true)
+  })
+
+  it('with no connection, keeps showing the saved plan with a note and a retry', async () => {
+    saveToday(buildUser().id, localDay(), pushDay)
+    vi.stubGlobal('fetch', vi.fn(() => Promise.reject(new TypeError('Failed to fetch'))))
+
+    const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="saved-today"]').exists()).toBe(true))
+
+    expect(wrapper.text()).toContain('Bench press')
+    expect(wrapper.find('[data-testid="saved-today"]').text()).toContain('saved on this phone')
+    expect(wrapper.find('[role="alert"]').exists()).toBe(false) // not the whole-page error
+
+    stubFetch({ status: 200, body: pushDay })
+    await wrapper.find('[data-testid="saved-today"] button').trigger('click')
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="saved-today"]').exists()).toBe(false))
+  })
+
+  it('with no connection and no saved copy, shows the load error as before', async () => {
+    vi.stubGlobal('fetch', vi.fn(() => Promise.reject(new TypeError('Failed to fetch'))))
+    const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
+    await vi.waitFor(() => expect(wrapper.find('[role="alert"]').exists()).toBe(true))
+    expect(wrapper.text()).toContain('No connection')
+  })
+
+  it('is forgotten on sign-out and when a session starts', async () => {
+    saveToday(buildUser().id, localDay(), pushDay)
+    useSessionStore().clear()
+    expect(localStorage.getItem(SAVED_TODAY_KEY)).toBeNull()
+
+    useSessionStore().start('tok', buildUser())
+    saveToday(buildUser().id, localDay(), pushDay)
+    stubFetch({ status: 201, body: { session: buildRunSession() } })
+    await useRunStore().start({})
+    expect(localStorage.getItem(SAVED_TODAY_KEY)).toBeNull()
   })
 })
