@@ -20,10 +20,15 @@ interface SavedToday {
   today: Today
 }
 
-export function saveToday(userId: number, day: { date: string; tzOffset: number }, today: Today): void {
+/** The text kept under SAVED_TODAY_KEY (the load benchmark writes it the same way). */
+export function savedTodayEntry(userId: number, day: { date: string; tzOffset: number }, today: Today): string {
   const saved: SavedToday = { format: FORMAT, userId, date: day.date, tzOffset: day.tzOffset, today }
+  return JSON.stringify(saved)
+}
+
+export function saveToday(userId: number, day: { date: string; tzOffset: number }, today: Today): void {
   try {
-    localStorage.setItem(SAVED_TODAY_KEY, JSON.stringify(saved))
+    localStorage.setItem(SAVED_TODAY_KEY, savedTodayEntry(userId, day, today))
   } catch {
     // Storage full or blocked (private mode): the screen simply loads as before.
   }

@@ -265,7 +265,7 @@ describe("today's plan kept on the phone", () => {
     await flushPromises()
     expect(wrapper.find('.van-skeleton').exists()).toBe(false)
     expect(wrapper.text()).toContain('Bench press') // before any answer
-    expect(held.calls).toHaveLength(1) // and it still asks the server
+    await vi.waitFor(() => expect(held.calls).toHaveLength(1)) // and it still asks the server, after that paint
 
     const fresh = { ...pushDay, inProgressSessionId: 91 }
     held.answer({ status: 200, body: fresh })

@@ -57,8 +57,8 @@ describe('a demo lifter on a 390x844 phone', () => {
     // Fonts and scripts all come from our own origin.
     expect(requestsOffOrigin).toEqual([])
 
-    // The cautions are not shown again on the next visit. That visit sends today's request as
-    // the app starts (src/main.ts) and the Train screen uses it: one request, not two.
+    // The cautions are not shown again on the next visit. The phone kept today's plan from the
+    // first visit, so Train paints it before the server answers (held back here), and asks once.
     const todayRequests: string[] = []
     const apiOrder: string[] = []
     page.on('request', (req) => {
@@ -66,13 +66,34 @@ describe('a demo lifter on a 390x844 phone', () => {
       if (path === '/api/train/today') todayRequests.push(req.url())
       if (path.startsWith('/api/')) apiOrder.push(path)
     })
+    let releaseToday = () => {}
+    const todayHeld = new Promise<void>((resolve) => (releaseToday = resolve))
+    await page.route('**/api/train/today*', async (route) => {
+      await todayHeld
+      await route.continue()
+    })
     await page.reload()
     await page.getByRole('heading', { name: 'Train', exact: true }).waitFor()
+    await page.getByText(/version (I|II)/).first().waitFor() // from the phone: the answer is still held
     await page.getByRole('button', { name: /Start session/ }).waitFor()
     expect(await page.getByRole('button', { name: 'I understand' }).count()).toBe(0)
+    await expect.poll(() => todayRequests.length).toBe(1)
+    const answered = page.waitForResponse((res) => new URL(res.url()).pathname === '/api/train/today')
+    releaseToday()
+    await answered
+    await page.unroute('**/api/train/today*')
+
+    // With no plan kept (another day), the request goes out as the app starts: ahead of the
+    // signed-in user's refresh, which App.vue sends after the first paint (without the early
+    // request, Train would ask only after the router's first navigation). One request, not two.
+    todayRequests.length = 0
+    apiOrder.length = 0
+    await page.evaluate(() => localStorage.removeItem('chalkline.today'))
+    await page.reload()
+    await page.getByText(/version (I|II)/).first().waitFor()
+    await page.getByRole('button', { name: /Start session/ }).waitFor()
+    await expect.poll(() => apiOrder.includes('/api/me')).toBe(true)
     expect(todayRequests).toHaveLength(1)
-    // Sent before the app mounted: ahead of the signed-in user's refresh, which App.vue sends
-    // once mounted (without the early request, Train asks only after the router's first navigation).
     expect(apiOrder.indexOf('/api/train/today')).toBeLessThan(apiOrder.indexOf('/api/me'))
     await page.close()
   })
