@@ -39,6 +39,7 @@ export interface BlockHistory {
 }
 
 const HISTORY_ROWS = 800
+const EXPOSURES_KEPT = 6
 
 /** A working set of the history query, as a plain row (`failure` is 0 or 1, the date is text). */
 interface HistoryRow {
@@ -54,7 +55,6 @@ interface HistoryRow {
   failure: number | boolean
   session: { completedAt: string | Date }
 }
-const EXPOSURES_KEPT = 6
 
 /**
  * Recent completed working sets for these exercises, grouped into exposures per block.
