@@ -7,8 +7,9 @@ import * as authApi from '@/api/auth'
 import { setAuthToken } from '@/api/client'
 import { forgetSavedToday } from '@/offline/saved-today'
 
-export const TOKEN_STORAGE_KEY = 'chalkline.token'
-export const USER_STORAGE_KEY = 'chalkline.user'
+import { TOKEN_STORAGE_KEY, USER_STORAGE_KEY } from './storage-keys'
+
+export { TOKEN_STORAGE_KEY, USER_STORAGE_KEY }
 
 /** The signed-in user and their token, both kept on the phone across reloads. */
 export const useSessionStore = defineStore('session', () => {
