@@ -54,6 +54,13 @@ export default defineConfig({
     Components({ resolvers: [VantResolver()], dts: false }),
   ],
   resolve: { alias },
+  // Vue's compile-time flags (vuejs.org, "Compile-Time Flags"): every component here, ours and
+  // Vant's, uses setup(), so the Options API support is left out of the bundle.
+  define: {
+    __VUE_OPTIONS_API__: 'false',
+    __VUE_PROD_DEVTOOLS__: 'false',
+    __VUE_PROD_HYDRATION_MISMATCH_DETAILS__: 'false',
+  },
   server: {
     port: 5173,
     proxy: { '/api': 'http://127.0.0.1:3000', '/dev': 'http://127.0.0.1:3000' },
