@@ -4,7 +4,6 @@ import vue from '@vitejs/plugin-vue'
 import Components from 'unplugin-vue-components/vite'
 import { VantResolver } from '@vant/auto-import-resolver'
 import { VitePWA } from 'vite-plugin-pwa'
-import { inlineEarlyScript } from './build/inline-early-script.js'
 import { vantIconSubset } from './build/vant-icon-subset.js'
 
 const alias = {
@@ -17,8 +16,6 @@ export default defineConfig({
     vue(),
     // Vant's inlined icon font cut to the icons the app can show, and never its CDN copy.
     vantIconSubset(),
-    // Today's plan request leaves with the page, while the app's JavaScript downloads.
-    inlineEarlyScript(),
     // Installable, and the app shell, fonts and sounds are cached so a started session runs with
     // no network after one visit. The API is never cached: sets wait in the runner's outbox.
     VitePWA({

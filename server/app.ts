@@ -1,4 +1,4 @@
-import { existsSync, readFileSync } from 'node:fs'
+import { existsSync } from 'node:fs'
 import { join } from 'node:path'
 import compression from 'compression'
 import express from 'express'
@@ -8,7 +8,7 @@ import { errorHandler, notFound } from './middleware/error-handler'
 import { apiRouter } from './routes'
 import { devRoutes } from './routes/dev.routes'
 import { createLogger } from './logger'
-import { inlineScriptHashes, securityHeaders } from './middleware/security'
+import { securityHeaders } from './middleware/security'
 import { requestLog } from './middleware/request-log'
 import type { Logger } from 'pino'
 import { LocalDiskStorage, type UploadStorage } from './storage/upload-storage'
@@ -32,10 +32,7 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   app.locals.logger = logger
   // One log line per request: method, path, status, time; never bodies, tokens or cookies.
   app.use(requestLog(logger))
-  // The built page's inline script (today's early request) is allowed by its hash.
-  const indexHtml = config.clientDist ? join(config.clientDist, 'index.html') : null
-  const scriptHashes = indexHtml && existsSync(indexHtml) ? inlineScriptHashes(readFileSync(indexHtml, 'utf8')) : []
-  app.use(securityHeaders(scriptHashes))
+  app.use(securityHeaders())
   // gzip or brotli for the client's files and the bigger JSON answers (a phone on a weak gym signal
   // pays for every byte); answers under 1 KB go as they are.
   app.use(compression())
@@ -48,7 +45,8 @@ export function createApp(config: AppConfig, deps: AppDeps) {
   app.use('/api', apiRouter(config), notFound)
 
   // Production: the same process serves the built client; unknown paths get the app shell.
-  if (config.clientDist && indexHtml && existsSync(config.clientDist)) {
+  if (config.clientDist && existsSync(config.clientDist)) {
+    const indexHtml = join(config.clientDist, 'index.html')
     app.use(
       express.static(config.clientDist, {
         index: false,

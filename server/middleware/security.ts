@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto'
 import type { RequestHandler } from 'express'
 import { rateLimit } from 'express-rate-limit'
 import helmet from 'helmet'
@@ -7,11 +6,10 @@ import type { AppConfig } from '../config'
 /**
  * Security headers with a content security policy that allows only our own origin. The app
  * ships its fonts, sounds and scripts itself; Vant's icon font is inlined as a data: URI and
- * recorded videos play from blob: addresses before upload. The one inline script of the built
- * index.html (today's early request, build/inline-early-script.ts) is allowed by its hash.
+ * recorded videos play from blob: addresses before upload.
  */
-export function securityHeaders(scriptHashes: readonly string[] = []): RequestHandler {
-  const headers = fixedHeaders(helmetForApp(scriptHashes))
+export function securityHeaders(): RequestHandler {
+  const headers = fixedHeaders(helmetForApp())
   const names = Object.keys(headers)
   // The same headers for every answer: helmet builds them once here instead of per request
   // (its CSP string alone was rebuilt from the directives on every call).
@@ -47,13 +45,13 @@ export function fixedHeaders(middleware: RequestHandler): Record<string, string>
 }
 
 /** helmet with the app's options, as a per-request middleware (the tests compare against it). */
-export function helmetForApp(scriptHashes: readonly string[] = []): RequestHandler {
+export function helmetForApp(): RequestHandler {
   return helmet({
     contentSecurityPolicy: {
       useDefaults: false,
       directives: {
         'default-src': ["'self'"],
-        'script-src': ["'self'", ...scriptHashes],
+        'script-src': ["'self'"],
         'style-src': ["'self'", "'unsafe-inline'"],
         'img-src': ["'self'", 'data:', 'blob:'],
         'font-src': ["'self'", 'data:'],
@@ -70,19 +68,6 @@ export function helmetForApp(scriptHashes: readonly string[] = []): RequestHandl
     // Served over plain HTTP on a local network in development: no forced HTTPS upgrade there.
     strictTransportSecurity: false,
   })
-}
-
-/**
- * CSP source expressions ('sha256-...') for the inline scripts of an HTML page: the scripts
- * without a src attribute, hashed over their exact text as the browser does.
- */
-export function inlineScriptHashes(html: string): string[] {
-  const hashes: string[] = []
-  for (const match of html.matchAll(/<script\b([^>]*)>([\s\S]*?)<\/script>/gi)) {
-    if (/\ssrc\s*=/i.test(match[1]!)) continue
-    hashes.push(`'sha256-${createHash('sha256').update(match[2]!, 'utf8').digest('base64')}'`)
-  }
-  return hashes
 }
 
 /**

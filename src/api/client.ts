@@ -74,41 +74,27 @@ async function toApiError(status: number, body: unknown, statusText: string): Pr
 }
 
 /** The app's only fetch: JSON in, JSON out, `/api` prefixed, bearer token attached. */
-export async function request<T = unknown>(method: HttpMethod, path: string, options: RequestOptions<T> = {}): Promise<T> {
+export async function request<T = unknown>(
+  method: HttpMethod,
+  path: string,
+  options: RequestOptions<T> = {},
+): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' }
   // A FormData body (a file upload) goes as multipart: the browser sets its own Content-Type.
   const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData
   if (options.body !== undefined && !isForm) headers['Content-Type'] = 'application/json'
   if (authToken) headers.Authorization = `Bearer ${authToken}`
-  // Started before the request goes out, so that building the schema overlaps the network wait.
-  const schema = startSchema(options.schema)
-  const sent = fetch(buildUrl(path, options.query), {
-    method,
-    headers,
-    body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
-  })
-  return readAnswer(sent, schema)
-}
-
-/**
- * Reads a request that was sent before the app started (the page's own early request for
- * today's plan, see src/early/) exactly as `request` reads its own: same errors, same schema check.
- */
-export function adoptRequest<T>(sent: Promise<Response>, schema?: SchemaOrLoader<T>): Promise<T> {
-  return readAnswer(sent, startSchema(schema))
-}
-
-function startSchema<T>(schema: SchemaOrLoader<T> | undefined): ZodType<T> | Promise<ZodType<T>> | undefined {
-  const started = typeof schema === 'function' ? schema() : schema
+  const schema = typeof options.schema === 'function' ? options.schema() : options.schema
   // A loader that fails (its chunk could not be fetched) is reported once the answer is read.
-  if (started instanceof Promise) started.catch(() => {})
-  return started
-}
+  if (schema instanceof Promise) schema.catch(() => {})
 
-async function readAnswer<T>(sent: Promise<Response>, schema: ZodType<T> | Promise<ZodType<T>> | undefined): Promise<T> {
   let response: Response
   try {
-    response = await sent
+    response = await fetch(buildUrl(path, options.query), {
+      method,
+      headers,
+      body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
+    })
   } catch {
     throw new ApiError(0, 'network_error', 'No connection to the server. Check your signal and try again.')
   }

@@ -1,16 +1,13 @@
 import type { Today } from '@shared/schemas/train.schema'
-import { takePageTodayRequest } from '@/early/today-request'
 import { localDay } from '@/utils/dates'
-import { adoptRequest, request } from './client'
+import { request } from './client'
 import type { LocalDay } from './run'
 
 /** What is next in the plan, by the lifter's own calendar day and clock offset (default: now, here). */
 export function getToday(day: LocalDay = localDay()): Promise<Today> {
-  return request('GET', '/train/today', { query: { ...day }, schema: loadTodaySchema })
+  // The Train screen is the app's first screen: its schema loads beside the request (see client.ts).
+  return request('GET', '/train/today', { query: { ...day }, schema: () => import('@shared/schemas/train.schema').then((m) => m.todaySchema) })
 }
-
-// The Train screen is the app's first screen: its schema loads beside the request (see client.ts).
-const loadTodaySchema = () => import('@shared/schemas/train.schema').then((m) => m.todaySchema)
 
 /** How long an early answer may wait for the Train screen before it counts as stale. */
 export const EARLY_TODAY_MAX_AGE_MS = 10_000
@@ -18,19 +15,16 @@ export const EARLY_TODAY_MAX_AGE_MS = 10_000
 let early: { day: string; tzOffset: number; startedAt: number; answer: Promise<Today> } | null = null
 
 /**
- * Today's answer as the app starts, before the Train screen has mounted, when the app opens on
- * it with a lifter kept on the phone. It adopts the request the page itself sent while the app
- * was downloading (src/early/), or sends one now, overlapping the app's own start-up work.
- * The Train screen takes the answer once (`takeEarlyToday`).
+ * Sends today's request as the app starts, before the Train screen has mounted, when the app
+ * opens on it with a lifter kept on the phone: the request then overlaps the app's own start-up
+ * work instead of following it. The Train screen takes the answer once (`takeEarlyToday`).
  */
 export function startEarlyToday(now: Date = new Date()): void {
   const day = localDay(now)
-  const page = takePageTodayRequest()
-  const adopted = page !== null && page.date === day.date && page.tzOffset === day.tzOffset
-  const answer = adopted ? adoptRequest(page.sent, loadTodaySchema) : getToday(day)
+  const answer = getToday(day)
   // Nobody may take it (the screen changed); its failure is then nobody's business.
   answer.catch(() => {})
-  early = { day: day.date, tzOffset: day.tzOffset, startedAt: adopted ? page.startedAt : now.getTime(), answer }
+  early = { day: day.date, tzOffset: day.tzOffset, startedAt: now.getTime(), answer }
 }
 
 /** The early answer for this day, once, if it was started in the last few seconds. */

@@ -7,9 +7,8 @@ import * as authApi from '@/api/auth'
 import { setAuthToken } from '@/api/client'
 import { forgetSavedToday } from '@/offline/saved-today'
 
-import { TOKEN_STORAGE_KEY, USER_STORAGE_KEY } from './storage-keys'
-
-export { TOKEN_STORAGE_KEY, USER_STORAGE_KEY }
+export const TOKEN_STORAGE_KEY = 'chalkline.token'
+export const USER_STORAGE_KEY = 'chalkline.user'
 
 /** The signed-in user and their token, both kept on the phone across reloads. */
 export const useSessionStore = defineStore('session', () => {

@@ -5,14 +5,13 @@ import { createPinia, setActivePinia, type Pinia } from 'pinia'
 import { createMemoryHistory, type Router } from 'vue-router'
 import type { Today } from '@shared/schemas/train.schema'
 import { setAuthToken } from '@/api/client'
-import { EARLY_TODAY_MAX_AGE_MS, getToday, startEarlyToday, takeEarlyToday } from '@/api/train'
-import { PAGE_TODAY_REQUEST, TRAIN_PATHS, sendPageTodayRequest, takePageTodayRequest } from '@/early/today-request'
+import { EARLY_TODAY_MAX_AGE_MS, startEarlyToday, takeEarlyToday } from '@/api/train'
 import { createAppRouter, opensOnTrain } from '@/router'
 import { useToday } from '@/composables/useToday'
 import { SAVED_TODAY_KEY, saveToday, savedToday } from '@/offline/saved-today'
 import { useRunStore } from '@/stores/run'
 import { localDay } from '@/utils/dates'
-import { TOKEN_STORAGE_KEY, USER_STORAGE_KEY, useSessionStore } from '@/stores/session'
+import { useSessionStore } from '@/stores/session'
 import TrainView from '@/views/TrainView.vue'
 import { buildUser, stubFetch } from './helpers/fetch-stub'
 import { buildRunSession } from './helpers/run-fixtures'
@@ -32,7 +31,6 @@ beforeEach(async () => {
 
 afterEach(() => {
   takeEarlyToday() // no early answer carries over to the next test
-  takePageTodayRequest()
   setAuthToken(null)
   vi.unstubAllGlobals()
 })
@@ -242,81 +240,6 @@ describe("today's request sent at start-up", () => {
     const wrapper = mount(TrainView, { global: { plugins: [pinia, router] } })
     await vi.waitFor(() => expect(wrapper.find('.van-skeleton').exists()).toBe(false))
     expect(wrapper.text()).toMatch(/try again|Something went wrong/i)
-  })
-})
-
-describe("today's request sent by the page while the app downloads (src/early/)", () => {
-  /** What the inlined script does in index.html. */
-  function pageSends(path = '/train', now = new Date()) {
-    ;(globalThis as unknown as Record<string, unknown>)[PAGE_TODAY_REQUEST] = sendPageTodayRequest(path, now)
-  }
-
-  it('asks with the same address and headers as the API client', async () => {
-    const { requests } = stubFetch({ status: 200, body: pushDay }, { status: 200, body: pushDay })
-    setAuthToken('tok')
-    await getToday()
-    pageSends()
-    expect(requests).toHaveLength(2)
-    expect(requests[1]).toEqual(requests[0])
-    expect(requests[1]!.headers.Authorization).toBe('Bearer tok')
-  })
-
-  it('is adopted by the app at start-up: one request, the Train screen shows its answer', async () => {
-    const { requests } = stubFetch({ status: 200, body: pushDay })
-    pageSends()
-    startEarlyToday()
-    expect(requests).toHaveLength(1)
-
-    const wrapper = await mountTrain()
-
-    expect(requests).toHaveLength(1)
-    expect(wrapper.text()).toContain('Bench press')
-  })
-
-  it('is read like any answer: a 401 is an ApiError, a malformed body a bad_response', async () => {
-    stubFetch({ status: 401, body: { error: { code: 'unauthorized', message: 'Sign in again' } } }, { status: 200, body: { plan: 'nonsense' } })
-    pageSends()
-    startEarlyToday()
-    await expect(takeEarlyToday()).rejects.toMatchObject({ name: 'ApiError', status: 401, code: 'unauthorized' })
-    pageSends()
-    startEarlyToday()
-    await expect(takeEarlyToday()).rejects.toMatchObject({ name: 'ApiError', code: 'bad_response' })
-  })
-
-  it('is not adopted when it was sent for another calendar day: the app asks again', () => {
-    const { requests } = stubFetch({ status: 200, body: pushDay }, { status: 200, body: pushDay })
-    pageSends('/train', new Date(2026, 11, 1, 23, 59, 59))
-    startEarlyToday(new Date(2026, 11, 2, 0, 0, 1))
-    expect(requests.map((r) => new URL(r.url, 'http://x').searchParams.get('date'))).toEqual(['2026-12-01', '2026-12-02'])
-    expect(takePageTodayRequest()).toBeNull() // taken once, adopted or not
-  })
-
-  it('goes out only for a lifter kept on the phone, on a Train address, with no plan kept for today', () => {
-    const { requests } = stubFetch()
-    expect(sendPageTodayRequest('/logbook')).toBeNull()
-    expect(sendPageTodayRequest('/sign-in')).toBeNull()
-    saveToday(7, localDay(), pushDay)
-    expect(sendPageTodayRequest('/train')).toBeNull()
-    localStorage.removeItem(SAVED_TODAY_KEY)
-    expect(sendPageTodayRequest('/train')).not.toBeNull() // the lifter of beforeEach, as the store keeps them
-    localStorage.setItem(USER_STORAGE_KEY, JSON.stringify(buildUser({ role: 'coach' })))
-    expect(sendPageTodayRequest('/train')).toBeNull()
-    localStorage.setItem(USER_STORAGE_KEY, '{damaged')
-    expect(sendPageTodayRequest('/train')).toBeNull()
-    localStorage.setItem(USER_STORAGE_KEY, JSON.stringify(buildUser()))
-    localStorage.removeItem(TOKEN_STORAGE_KEY)
-    expect(sendPageTodayRequest('/train')).toBeNull()
-    expect(requests).toHaveLength(1)
-  })
-
-  it("knows the same Train addresses as the router's opensOnTrain", () => {
-    const paths = ['/', '/train', '/train/', '/logbook', '/progress', '/sign-in', '/me', '/session/4', '/no-such-page']
-    for (const path of paths) {
-      stubFetch({ status: 200, body: pushDay })
-      const sent = sendPageTodayRequest(path) !== null
-      expect(sent, path).toBe(opensOnTrain(router, path))
-    }
-    for (const path of TRAIN_PATHS) expect(opensOnTrain(router, path)).toBe(true)
   })
 })
 
