@@ -19,6 +19,7 @@ import type { BenchContext, BenchPart } from './bench-types'
 const PARTS = {
   'page-weight': () => import('./page-weight'),
   lighthouse: () => import('./lighthouse'),
+  'train-load': () => import('./train-load'),
   interaction: () => import('./interaction'),
   api: () => import('./api'),
   load: () => import('./load'),
