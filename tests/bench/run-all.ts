@@ -2,7 +2,7 @@
  * `npm run bench`: builds the app, runs every benchmark part one after another, and writes
  * bench/report.md and bench/report.json.
  *
- *   npm run bench                      all parts (about 10 minutes on 2 cores)
+ *   npm run bench                      all parts (about 17 minutes on 2 cores)
  *   npm run bench -- --only api,load   some parts (names below)
  *   npm run bench -- --no-build        reuse dist/ as it is
  *
