@@ -1,13 +1,13 @@
 import { z } from 'zod'
+import { versionLabelSchema } from './version-label.schema'
+
+export { versionLabelSchema, type VersionLabel } from './version-label.schema'
 
 export const setKindSchema = z.enum(['warmup', 'top', 'backoff', 'straight'])
 export type SetKind = z.infer<typeof setKindSchema>
 
 export const sessionStatusSchema = z.enum(['planned', 'in_progress', 'completed'])
 export type SessionStatus = z.infer<typeof sessionStatusSchema>
-
-export const versionLabelSchema = z.enum(['I', 'II'])
-export type VersionLabel = z.infer<typeof versionLabelSchema>
 
 /** One logged (or planned) set. Loads are stored in kilograms at full precision. */
 export const setLogSchema = z.object({

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { versionLabelSchema } from './session.schema'
+import { versionLabelSchema } from './version-label.schema'
 
 export const slotRoleSchema = z.enum(['compound_primary', 'accessory', 'isolation'])
 export type SlotRole = z.infer<typeof slotRoleSchema>
