@@ -62,6 +62,14 @@ export function localDayQuery(now = new Date()) {
   return { date: `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`, tzOffset: now.getTimezoneOffset() }
 }
 
+/**
+ * What the client keeps in localStorage for a signed-in user (src/stores/session.ts
+ * TOKEN_STORAGE_KEY, USER_STORAGE_KEY): put there, a page opens signed in as that user.
+ */
+export function signedInStorage(signedIn: { token: string; user: User }): Record<string, string> {
+  return { 'chalkline.token': signedIn.token, 'chalkline.user': JSON.stringify(signedIn.user) }
+}
+
 /** Signs a demo lifter in through the API and confirms the first-sign-in cautions, so the dialog does not cover the page. */
 export async function signInDemoLifter(baseUrl: string, email: string, password: string) {
   const { token } = await api<{ token: string; user: User }>(baseUrl, 'POST', '/auth/sign-in', { body: { email, password } })

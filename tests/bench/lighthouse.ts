@@ -31,15 +31,12 @@ import { CHROMIUM_PATH } from '../helpers/browser'
 import { budget, median, type BenchContext, type BenchPart } from './bench-types'
 import { SAVED_TODAY_KEY, savedTodayEntry } from '../../src/offline/saved-today'
 import type { Today } from '../../shared/schemas/train.schema'
-import { api, demoLifterWithStartedSession, isMainModule, localDayQuery, runAlone, startBuiltServer } from './built-server'
+import { api, demoLifterWithStartedSession, isMainModule, localDayQuery, runAlone, signedInStorage, startBuiltServer } from './built-server'
 
 const RUNS = 5
 const BUDGET_SCORE = 0.95
 const BUDGET_LCP_MS = 2000
 const BUDGET_CLS = 0.05
-/** What the client keeps in localStorage (src/stores/session.ts TOKEN_STORAGE_KEY, USER_STORAGE_KEY). */
-const TOKEN_KEY = 'chalkline.token'
-const USER_KEY = 'chalkline.user'
 
 const CHROMIUM_FLAGS = [
   '--headless=new', '--no-sandbox', '--disable-gpu', '--disable-background-networking',
@@ -264,7 +261,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       name: 'Train screen, session started',
       path: '/train',
       slug: 'train',
-      storage: { [TOKEN_KEY]: signedIn.token, [USER_KEY]: JSON.stringify(signedIn.user) },
+      storage: signedInStorage(signedIn),
     })
     // What the phone keeps after showing Train once today: the same answer the page will ask for.
     const day = localDayQuery()
@@ -276,8 +273,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       path: '/train',
       slug: 'train-reopened',
       storage: {
-        [TOKEN_KEY]: signedIn.token,
-        [USER_KEY]: JSON.stringify(signedIn.user),
+        ...signedInStorage(signedIn),
         [SAVED_TODAY_KEY]: savedTodayEntry(signedIn.user.id, day, today),
       },
     })

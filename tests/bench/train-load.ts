@@ -15,7 +15,7 @@ import type { Page } from 'playwright-core'
 import { launchChromium } from '../helpers/browser'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
 import { median, type BenchContext, type BenchPart } from './bench-types'
-import { demoLifterWithStartedSession, isMainModule, runAlone, startBuiltServer } from './built-server'
+import { demoLifterWithStartedSession, isMainModule, runAlone, signedInStorage, startBuiltServer } from './built-server'
 
 const VISITS = 7
 /** Lighthouse's mobile throttling figures (part 2), applied by DevTools to the real load. */
@@ -56,10 +56,9 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       try {
         const page = await context.newPage()
         await page.goto(server.baseUrl + '/api/health')
-        await page.evaluate(([token, user]) => {
-          localStorage.setItem('chalkline.token', token)
-          localStorage.setItem('chalkline.user', user)
-        }, [signedIn.token, JSON.stringify(signedIn.user)] as const)
+        await page.evaluate((items) => {
+          for (const [key, value] of Object.entries(items)) localStorage.setItem(key, value)
+        }, signedInStorage(signedIn))
         const cdp = await context.newCDPSession(page)
         await cdp.send('Network.enable')
         await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: LATENCY_MS, downloadThroughput: DOWNLOAD_BYTES_PER_S, uploadThroughput: UPLOAD_BYTES_PER_S })
