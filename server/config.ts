@@ -1,43 +1,41 @@
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { dirname, resolve } from 'node:path'
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 
-const booleanFromEnv = z
-  .enum(['true', 'false', '1', '0'])
-  .transform((v) => v === 'true' || v === '1')
+const booleanFromEnv = z.pipe(z.enum(['true', 'false', '1', '0']), z.transform((v) => v === 'true' || v === '1'))
 
 const envSchema = z.object({
-  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
-  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
-  HOST: z.string().default('0.0.0.0'),
-  DATABASE_PATH: z.string().default('data/chalkline.sqlite'),
+  NODE_ENV: z._default(z.enum(['development', 'production', 'test']), 'development'),
+  PORT: z._default(z.pipe(z.coerce.number(), z.int().check(z.gte(0), z.lte(65535))), 3000),
+  HOST: z._default(z.string(), '0.0.0.0'),
+  DATABASE_PATH: z._default(z.string(), 'data/chalkline.sqlite'),
   /** When unset, a secret is generated on first run and kept next to the database. */
-  JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters').optional(),
-  JWT_TTL: z.string().regex(/^\d+[smhd]$/, 'JWT_TTL looks like 12h or 7d').default('7d'),
+  JWT_SECRET: z.optional(z.string().check(z.minLength(32, 'JWT_SECRET must be at least 32 characters'))),
+  JWT_TTL: z._default(z.string().check(z.regex(/^\d+[smhd]$/, 'JWT_TTL looks like 12h or 7d')), '7d'),
   /** bcrypt cost factor; 10 is the floor (OWASP Password Storage Cheat Sheet). */
-  BCRYPT_COST: z.coerce.number().int().min(10).max(15).default(12),
+  BCRYPT_COST: z._default(z.pipe(z.coerce.number(), z.int().check(z.gte(10), z.lte(15))), 12),
   /** Load the demo club when the database has no users. */
-  SEED_DEMO: booleanFromEnv.default(true),
+  SEED_DEMO: z._default(booleanFromEnv, true),
   /** Serve the built client from this folder (production mode). */
-  CLIENT_DIST: z.string().default('dist/client'),
+  CLIENT_DIST: z._default(z.string(), 'dist/client'),
   /** Where links in e-mails point; defaults to http://localhost:<PORT>. */
-  APP_URL: z.url().optional(),
+  APP_URL: z.optional(z.url()),
   /** A real SMTP server; without SMTP_HOST the app starts its own local fake SMTP server. */
-  SMTP_HOST: z.string().min(1).optional(),
-  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(587),
-  SMTP_SECURE: booleanFromEnv.default(false),
-  SMTP_USER: z.string().optional(),
-  SMTP_PASS: z.string().optional(),
-  MAIL_FROM: z.string().default('Chalkline <no-reply@chalkline.localhost>'),
+  SMTP_HOST: z.optional(z.string().check(z.minLength(1))),
+  SMTP_PORT: z._default(z.pipe(z.coerce.number(), z.int().check(z.gte(1), z.lte(65535))), 587),
+  SMTP_SECURE: z._default(booleanFromEnv, false),
+  SMTP_USER: z.optional(z.string()),
+  SMTP_PASS: z.optional(z.string()),
+  MAIL_FROM: z._default(z.string(), 'Chalkline <no-reply@chalkline.localhost>'),
   /** Form-check videos: where they are kept and the largest accepted, in megabytes. */
-  UPLOAD_DIR: z.string().optional(),
-  UPLOAD_MAX_MB: z.coerce.number().min(1).max(2000).default(100),
+  UPLOAD_DIR: z.optional(z.string()),
+  UPLOAD_MAX_MB: z._default(z.coerce.number().check(z.gte(1), z.lte(2000)), 100),
   /** Sign-in, registration, password reset and invitation attempts per client address per 15 minutes. */
-  RATE_LIMIT_AUTH: z.coerce.number().int().min(1).max(100000).optional(),
-  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  RATE_LIMIT_AUTH: z.optional(z.pipe(z.coerce.number(), z.int().check(z.gte(1), z.lte(100000)))),
+  LOG_LEVEL: z.optional(z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'])),
   /** How long an invitation link works. */
-  INVITE_TTL_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(24 * 7),
+  INVITE_TTL_HOURS: z._default(z.pipe(z.coerce.number(), z.int().check(z.gte(1), z.lte(24 * 30))), 24 * 7),
 })
 
 export interface AppConfig {

@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import type { Logger } from 'pino'
-import { ZodError } from 'zod'
+import { z } from 'zod/mini'
 import { AppError } from '../errors'
 import { loggedUrl } from './request-log'
 import { toFieldIssues } from './validate'
@@ -13,7 +13,7 @@ export const notFound: RequestHandler = (req, _res, next) => {
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   let error: AppError
   if (err instanceof AppError) error = err
-  else if (err instanceof ZodError) error = AppError.badRequest('Some fields are not valid', toFieldIssues(err))
+  else if (err instanceof z.core.$ZodError) error = AppError.badRequest('Some fields are not valid', toFieldIssues(err))
   else if (err?.type === 'entity.parse.failed') error = new AppError(400, 'invalid_json', 'The body is not valid JSON')
   else if (err?.type === 'entity.too.large') error = new AppError(413, 'payload_too_large', 'The body is too large')
   else if (err?.name === 'MulterError') {

@@ -1,10 +1,10 @@
 import type { RequestHandler } from 'express'
-import type { z } from 'zod'
+import type { z } from 'zod/mini'
 import { AppError, type FieldIssue } from '../errors'
 
-type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType }
+type Schemas = { body?: z.ZodMiniType; query?: z.ZodMiniType; params?: z.ZodMiniType }
 
-export function toFieldIssues(error: z.ZodError, prefix?: string): FieldIssue[] {
+export function toFieldIssues(error: z.core.$ZodError, prefix?: string): FieldIssue[] {
   return error.issues.map((issue) => ({
     path: [prefix, ...issue.path.map(String)].filter(Boolean).join('.') || '(root)',
     message: issue.message,

@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import { idParamsSchema } from '@shared/schemas/common.schema'
 import { setParamsSchema } from '@shared/schemas/run.schema'
 import * as uploads from '../controllers/uploads.controller'
@@ -8,7 +8,7 @@ import { validate } from '../middleware/validate'
 import { videoUpload } from '../middleware/video-upload'
 
 const setIdParams = z.object({ setId: z.uuid() })
-const streamQuery = z.object({ sig: z.string().min(10).max(2000) })
+const streamQuery = z.object({ sig: z.string().check(z.minLength(10), z.maxLength(2000)) })
 
 export const uploadRoutes = Router()
 uploadRoutes.post('/sets/:setId/video', authenticate, requireRole('lifter'), validate({ params: setIdParams }), videoUpload, uploads.attach)

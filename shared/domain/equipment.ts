@@ -5,7 +5,7 @@
  * integer grid of 1/1,000,000 of that unit, so 2.5 + 2.5 + 45 is exact. Public functions take and
  * return kilograms (`...Kg`) as stored, plus the load in the equipment unit for display.
  */
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import { EngineError, assertLoad } from './errors'
 import { fromKg, snap, toKg, type Unit } from './units'
 
@@ -13,50 +13,50 @@ export const EQUIPMENT_KINDS = ['barbell', 'dumbbell', 'stack', 'bodyweight', 'a
 export type EquipmentKind = (typeof EQUIPMENT_KINDS)[number]
 
 const unitSchema = z.enum(['kg', 'lb'])
-const massSchema = z.number().positive().finite()
+const massSchema = z.number().check(z.positive())
 /** A kind of loose weight and how many are on hand: plate pairs for a bar, single pieces otherwise. */
-const stockSchema = z.object({ mass: massSchema, count: z.number().int().min(0).max(100) })
+const stockSchema = z.object({ mass: massSchema, count: z.int().check(z.gte(0), z.lte(100)) })
 
 export const barbellSchema = z.object({
   kind: z.literal('barbell'),
-  name: z.string().max(80).optional(),
+  name: z.optional(z.string().check(z.maxLength(80))),
   unit: unitSchema,
   barMass: massSchema,
   /** Mass of ONE collar; two are used and counted in the load (IWF). 0 when the gym lifts without. */
-  collarMass: z.number().min(0).finite(),
+  collarMass: z.number().check(z.gte(0)),
   /** Plate PAIRS on hand: `count` pairs of `mass`, i.e. `count` plates per side at most. */
-  plates: z.array(stockSchema).max(30),
+  plates: z.array(stockSchema).check(z.maxLength(30)),
 })
 export const dumbbellSchema = z.object({
   kind: z.literal('dumbbell'),
-  name: z.string().max(80).optional(),
+  name: z.optional(z.string().check(z.maxLength(80))),
   unit: unitSchema,
   /** Fixed dumbbell pairs on hand; the load is the mass of ONE dumbbell (as lifters log it). */
-  pairs: z.array(massSchema).min(1).max(200),
+  pairs: z.array(massSchema).check(z.minLength(1), z.maxLength(200)),
 })
 export const stackSchema = z.object({
   kind: z.literal('stack'),
-  name: z.string().max(80).optional(),
+  name: z.optional(z.string().check(z.maxLength(80))),
   unit: unitSchema,
   /** Every load the pin can select. */
-  steps: z.array(z.number().min(0).finite()).min(1).max(200),
+  steps: z.array(z.number().check(z.gte(0))).check(z.minLength(1), z.maxLength(200)),
   /** Optional add-on weights that hang on the stack (e.g. a 2.5 lb magnet), with counts. */
-  addOns: z.array(stockSchema).max(10),
+  addOns: z.array(stockSchema).check(z.maxLength(10)),
 })
 export const bodyweightSchema = z.object({
   kind: z.literal('bodyweight'),
-  name: z.string().max(80).optional(),
+  name: z.optional(z.string().check(z.maxLength(80))),
   unit: unitSchema,
   /** Loose weights that can be added (belt plates, a dumbbell between the feet); load = added load. */
-  added: z.array(stockSchema).max(20),
+  added: z.array(stockSchema).check(z.maxLength(20)),
 })
 export const anyLoadSchema = z.object({
   kind: z.literal('any'),
-  name: z.string().max(80).optional(),
+  name: z.optional(z.string().check(z.maxLength(80))),
   unit: unitSchema,
   step: massSchema,
-  min: z.number().min(0).finite(),
-  max: massSchema.optional(),
+  min: z.number().check(z.gte(0)),
+  max: z.optional(massSchema),
 })
 
 /** An equipment profile a gym (or lifter) keeps; the server stores and validates it with this. */

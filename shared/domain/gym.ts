@@ -2,7 +2,7 @@
  * A gym profile: the equipment a lifter trains with, one entry per kind, so each exercise can
  * be loaded with what is really there. Stored per lifter (EquipmentProfile) and editable.
  */
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import {
   barbellSchema, bodyweightSchema, dumbbellSchema, KG_COMPETITION_SET, LB_GYM_SET, stackSchema,
   type Equipment,

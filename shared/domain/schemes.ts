@@ -2,7 +2,7 @@
  * Slot roles, set schemes (what a plan prescribes for one exercise slot), set caps, default
  * rest, and the back-off set target computed from what the top set actually did.
  */
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import { estimateOneRepMax, loadForReps, type E1rmFormula } from './e1rm'
 import { EngineError, MAX_REPS, assertReps } from './errors'
 import { roundDownToLoadable, type Equipment, type LoadOption } from './equipment'
@@ -39,50 +39,50 @@ export const DEFAULT_REST_SECONDS: Readonly<Record<SlotRole, number>> = {
   isolation: 90,
 }
 
-export const schemeSetSchema = z
-  .object({
-    kind: z.enum(WORKING_SET_KINDS),
-    repsMin: z.number().int().min(1).max(MAX_REPS),
-    repsMax: z.number().int().min(1).max(MAX_REPS),
-    /** Taken to technical failure (no further clean rep possible). */
-    toFailure: z.boolean(),
-    /** Reps in reserve to stop at when not to failure; null when to failure. */
-    targetRir: z.number().int().min(0).max(6).nullable(),
-    /** Straight sets after the first: load this many percent below the previous working set. */
-    loadStepDownPct: z.number().min(0).max(50).nullable(),
-  })
-  .refine((s) => s.repsMin <= s.repsMax, { message: 'repsMin must not exceed repsMax', path: ['repsMax'] })
-  .refine((s) => (s.toFailure ? s.targetRir === null : s.targetRir !== null), {
+export const schemeSetSchema = z.object({
+  kind: z.enum(WORKING_SET_KINDS),
+  repsMin: z.int().check(z.gte(1), z.lte(MAX_REPS)),
+  repsMax: z.int().check(z.gte(1), z.lte(MAX_REPS)),
+  /** Taken to technical failure (no further clean rep possible). */
+  toFailure: z.boolean(),
+  /** Reps in reserve to stop at when not to failure; null when to failure. */
+  targetRir: z.nullable(z.int().check(z.gte(0), z.lte(6))),
+  /** Straight sets after the first: load this many percent below the previous working set. */
+  loadStepDownPct: z.nullable(z.number().check(z.gte(0), z.lte(50))),
+}).check(
+  z.refine((s) => s.repsMin <= s.repsMax, { message: 'repsMin must not exceed repsMax', path: ['repsMax'] }),
+  z.refine((s) => (s.toFailure ? s.targetRir === null : s.targetRir !== null), {
     message: 'A set is either to failure or has a target RIR',
     path: ['targetRir'],
-  })
+  }),
+)
 export type SchemeSet = z.infer<typeof schemeSetSchema>
 
-export const setSchemeSchema = z
-  .object({
-    sets: z.array(schemeSetSchema).min(1).max(MAX_WORKING_SETS_ANY),
-    /** Warm-up sets before the first working set. */
-    warmup: z.boolean(),
-    /** How many warm-ups; null = from the working load (primary) or 1 (others). */
-    warmupSets: z.number().int().min(1).max(5).nullable(),
-  })
-  .refine((s) => s.sets.every((set, i) => (set.kind === 'top' ? i === 0 : true)), {
+export const setSchemeSchema = z.object({
+  sets: z.array(schemeSetSchema).check(z.minLength(1), z.maxLength(MAX_WORKING_SETS_ANY)),
+  /** Warm-up sets before the first working set. */
+  warmup: z.boolean(),
+  /** How many warm-ups; null = from the working load (primary) or 1 (others). */
+  warmupSets: z.nullable(z.int().check(z.gte(1), z.lte(5))),
+}).check(
+  z.refine((s) => s.sets.every((set, i) => (set.kind === 'top' ? i === 0 : true)), {
     message: 'A top set can only be the first working set',
     path: ['sets'],
-  })
-  .refine((s) => s.sets.every((set) => set.kind !== 'backoff') || s.sets[0].kind === 'top', {
+  }),
+  z.refine((s) => s.sets.every((set) => set.kind !== 'backoff') || s.sets[0].kind === 'top', {
     message: 'Back-off sets need a top set first',
     path: ['sets'],
-  })
+  }),
+)
 export type SetScheme = z.infer<typeof setSchemeSchema>
 
 /** A slot's role and scheme, checked against the set caps for the role. */
-export const slotSchemeSchema = z
-  .object({ role: slotRoleSchema, scheme: setSchemeSchema })
-  .refine((s) => s.scheme.sets.length <= maxWorkingSets(s.role), {
+export const slotSchemeSchema = z.object({ role: slotRoleSchema, scheme: setSchemeSchema }).check(
+  z.refine((s) => s.scheme.sets.length <= maxWorkingSets(s.role), {
     message: `At most ${MAX_WORKING_SETS_PRIMARY} working sets on a primary compound and ${MAX_WORKING_SETS_ANY} on any movement`,
     path: ['scheme', 'sets'],
-  })
+  }),
+)
 export type SlotScheme = z.infer<typeof slotSchemeSchema>
 
 const straight = (repsMin: number, repsMax: number, loadStepDownPct: number | null, targetRir: number | null): SchemeSet => ({

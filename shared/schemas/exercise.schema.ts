@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from './zod'
 
 export const movementPatternSchema = z.enum([
   'horizontal_push', 'vertical_push', 'horizontal_pull', 'vertical_pull', 'squat', 'hinge', 'lunge',
@@ -18,30 +18,30 @@ export const exerciseEquipmentSchema = z.enum(['barbell', 'dumbbell', 'machine',
 export type ExerciseEquipment = z.infer<typeof exerciseEquipmentSchema>
 
 export const exerciseSchema = z.object({
-  id: z.number().int(),
+  id: z.int(),
   name: z.string(),
   pattern: movementPatternSchema,
   primaryMuscles: z.array(muscleSchema),
   secondaryMuscles: z.array(muscleSchema),
   equipmentKind: exerciseEquipmentSchema,
-  loadStepKg: z.number().positive(),
-  defaultRestSec: z.number().int().positive(),
+  loadStepKg: z.number().check(z.positive()),
+  defaultRestSec: z.int().check(z.positive()),
   custom: z.boolean(),
 })
 export type Exercise = z.infer<typeof exerciseSchema>
 
-export const createExerciseSchema = exerciseSchema.omit({ id: true, custom: true }).extend({
-  name: z.string().trim().min(2).max(80),
-  primaryMuscles: z.array(muscleSchema).min(1, 'Pick at least one primary muscle'),
-  loadStepKg: z.number().positive().max(50),
-  defaultRestSec: z.number().int().min(15).max(600),
+export const createExerciseSchema = z.extend(z.omit(exerciseSchema, { id: true, custom: true }), {
+  name: z.string().check(z.trim(), z.minLength(2), z.maxLength(80)),
+  primaryMuscles: z.array(muscleSchema).check(z.minLength(1, 'Pick at least one primary muscle')),
+  loadStepKg: z.number().check(z.positive(), z.lte(50)),
+  defaultRestSec: z.int().check(z.gte(15), z.lte(600)),
 })
 export type CreateExerciseInput = z.infer<typeof createExerciseSchema>
 
 export const listExercisesQuerySchema = z.object({
-  q: z.string().trim().max(80).optional(),
-  pattern: movementPatternSchema.optional(),
-  muscle: muscleSchema.optional(),
-  equipment: exerciseEquipmentSchema.optional(),
+  q: z.optional(z.string().check(z.trim(), z.maxLength(80))),
+  pattern: z.optional(movementPatternSchema),
+  muscle: z.optional(muscleSchema),
+  equipment: z.optional(exerciseEquipmentSchema),
 })
 export type ListExercisesQuery = z.infer<typeof listExercisesQuerySchema>

@@ -1,21 +1,21 @@
-import { z } from 'zod'
+import { z } from './zod'
 import { displayNameSchema, emailSchema, passwordSchema } from './auth.schema'
 
 export const createInviteSchema = z.object({ name: displayNameSchema, email: emailSchema })
 export type CreateInviteInput = z.infer<typeof createInviteSchema>
 
-export const inviteTokenParamsSchema = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not an invitation link') })
+export const inviteTokenParamsSchema = z.object({ token: z.string().check(z.regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not an invitation link')) })
 
 /** A new lifter sets a password; an existing one accepts while signed in and sends no body fields. */
-export const acceptInviteSchema = z.object({ password: passwordSchema.optional(), name: displayNameSchema.optional() })
+export const acceptInviteSchema = z.object({ password: z.optional(passwordSchema), name: z.optional(displayNameSchema) })
 export type AcceptInviteInput = z.infer<typeof acceptInviteSchema>
 
 export const inviteSchema = z.object({
-  id: z.number().int(),
+  id: z.int(),
   name: z.string(),
   email: z.string(),
   expiresAt: z.string(),
-  acceptedAt: z.string().nullable(),
+  acceptedAt: z.nullable(z.string()),
 })
 export type Invite = z.infer<typeof inviteSchema>
 

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from './zod'
 import { equipmentSchema } from '../domain/equipment'
 import { slotRoleSchema } from './train.schema'
 import { sessionSummarySchema, setKindSchema, versionLabelSchema } from './session.schema'
@@ -9,42 +9,42 @@ import { sessionSummarySchema, setKindSchema, versionLabelSchema } from './sessi
  */
 
 /** Start today's session (no body fields), another day of the plan, or an empty session. */
-export const startSessionSchema = z
-  .object({
-    dayId: z.number().int().positive().optional(),
-    version: versionLabelSchema.optional(),
-    empty: z.boolean().default(false),
-  })
-  .refine((v) => !(v.empty && v.dayId !== undefined), { message: 'An empty session has no plan day', path: ['dayId'] })
-  .refine((v) => (v.dayId === undefined) === (v.version === undefined), {
+export const startSessionSchema = z.object({
+  dayId: z.optional(z.int().check(z.positive())),
+  version: z.optional(versionLabelSchema),
+  empty: z._default(z.boolean(), false),
+}).check(
+  z.refine((v) => !(v.empty && v.dayId !== undefined), { message: 'An empty session has no plan day', path: ['dayId'] }),
+  z.refine((v) => (v.dayId === undefined) === (v.version === undefined), {
     message: 'Pick a day and its version together',
     path: ['version'],
-  })
+  }),
+)
 export type StartSessionInput = z.infer<typeof startSessionSchema>
 
 /** One set of a running session (planned, done or skipped). Loads in kilograms. */
 export const runSetSchema = z.object({
   id: z.uuid(),
-  exerciseId: z.number().int(),
-  slotId: z.number().int().nullable(),
-  position: z.number().int(),
+  exerciseId: z.int(),
+  slotId: z.nullable(z.int()),
+  position: z.int(),
   kind: setKindSchema,
-  targetLoadKg: z.number().nullable(),
-  targetRepsMin: z.number().int().nullable(),
-  targetRepsMax: z.number().int().nullable(),
+  targetLoadKg: z.nullable(z.number()),
+  targetRepsMin: z.nullable(z.int()),
+  targetRepsMax: z.nullable(z.int()),
   /** The rep count to beat inside the range (from the next step), or null. */
-  targetReps: z.number().int().nullable(),
+  targetReps: z.nullable(z.int()),
   toFailure: z.boolean(),
-  targetRir: z.number().int().nullable(),
-  loadKg: z.number().nullable(),
-  reps: z.number().int().nullable(),
-  rir: z.number().int().nullable(),
+  targetRir: z.nullable(z.int()),
+  loadKg: z.nullable(z.number()),
+  reps: z.nullable(z.int()),
+  rir: z.nullable(z.int()),
   failure: z.boolean(),
   skipped: z.boolean(),
-  note: z.string().nullable(),
-  loggedAt: z.string().nullable(),
+  note: z.nullable(z.string()),
+  loggedAt: z.nullable(z.string()),
   /** The client's time of the last edit: the later edit wins when two devices disagree. */
-  editedAt: z.string().nullable(),
+  editedAt: z.nullable(z.string()),
 })
 export type RunSet = z.infer<typeof runSetSchema>
 
@@ -52,91 +52,91 @@ export type RunSet = z.infer<typeof runSetSchema>
 export const lastTimeSetSchema = z.object({
   kind: setKindSchema,
   loadKg: z.number(),
-  reps: z.number().int(),
-  rir: z.number().int().nullable(),
+  reps: z.int(),
+  rir: z.nullable(z.int()),
 })
 
 export const runExerciseSchema = z.object({
-  exerciseId: z.number().int(),
-  slotId: z.number().int().nullable(),
+  exerciseId: z.int(),
+  slotId: z.nullable(z.int()),
   name: z.string(),
   pattern: z.string(),
   role: slotRoleSchema,
-  restSec: z.number().int(),
+  restSec: z.int(),
   /** The equipment that loads this exercise in the lifter's gym. */
   equipment: equipmentSchema,
   lastTime: z.array(lastTimeSetSchema),
-  lastTimeAt: z.string().nullable(),
+  lastTimeAt: z.nullable(z.string()),
   /** The coach's comments on this exercise's sets last time, for the set card. */
   coachComments: z.array(z.object({ body: z.string(), author: z.string(), createdAt: z.string() })),
   /** Who set today's first target: the coach edited the next step, or the lifter took it. */
-  nextStepBy: z.enum(['coach', 'lifter']).nullable(),
+  nextStepBy: z.nullable(z.enum(['coach', 'lifter'])),
 })
 export type RunExercise = z.infer<typeof runExerciseSchema>
 
-export const runSessionSchema = sessionSummarySchema.extend({
+export const runSessionSchema = z.extend(sessionSummarySchema, {
   exercises: z.array(runExerciseSchema),
   sets: z.array(runSetSchema),
 })
 export type RunSession = z.infer<typeof runSessionSchema>
 
-const load = z.number().min(0, 'A load cannot be negative').max(1000, 'At most 1000 kg')
-const reps = z.number().int().min(0).max(50, 'At most 50 reps')
+const load = z.number().check(z.gte(0, 'A load cannot be negative'), z.lte(1000, 'At most 1000 kg'))
+const reps = z.int().check(z.gte(0), z.lte(50, 'At most 50 reps'))
 
 /** PUT /api/sessions/:id/sets/:setId — creates or updates one set; the same request twice is safe. */
 export const logSetSchema = z.object({
-  exerciseId: z.number().int().positive(),
-  slotId: z.number().int().positive().nullable(),
+  exerciseId: z.int().check(z.positive()),
+  slotId: z.nullable(z.int().check(z.positive())),
   // Exercise blocks are 100 positions apart (block i at i*100), so a long session runs past 500.
-  position: z.number().int().min(0).max(1_000_000),
+  position: z.int().check(z.gte(0), z.lte(1_000_000)),
   kind: setKindSchema,
-  targetLoadKg: load.nullable(),
-  targetRepsMin: reps.nullable(),
-  targetRepsMax: reps.nullable(),
-  targetReps: reps.nullable().default(null),
+  targetLoadKg: z.nullable(load),
+  targetRepsMin: z.nullable(reps),
+  targetRepsMax: z.nullable(reps),
+  targetReps: z._default(z.nullable(reps), null),
   toFailure: z.boolean(),
-  targetRir: z.number().int().min(0).max(10).nullable(),
-  loadKg: load.nullable(),
-  reps: reps.nullable(),
-  rir: z.number().int().min(0).max(10).nullable(),
+  targetRir: z.nullable(z.int().check(z.gte(0), z.lte(10))),
+  loadKg: z.nullable(load),
+  reps: z.nullable(reps),
+  rir: z.nullable(z.int().check(z.gte(0), z.lte(10))),
   failure: z.boolean(),
-  skipped: z.boolean().default(false),
-  note: z.string().trim().max(500).nullable(),
-  loggedAt: z.iso.datetime().nullable(),
+  skipped: z._default(z.boolean(), false),
+  note: z.nullable(z.string().check(z.trim(), z.maxLength(500))),
+  loggedAt: z.nullable(z.iso.datetime()),
   editedAt: z.iso.datetime(),
 })
 export type LogSetInput = z.infer<typeof logSetSchema>
 
-export const setParamsSchema = z.object({ id: z.coerce.number().int().positive(), setId: z.uuid() })
+export const setParamsSchema = z.object({ id: z.pipe(z.coerce.number(), z.int().check(z.positive())), setId: z.uuid() })
 
 /** Swap every set of one exercise that is not yet done for another exercise. */
 export const swapExerciseSchema = z.object({
-  exerciseId: z.number().int().positive(),
-  slotId: z.number().int().positive().nullable(),
-  toExerciseId: z.number().int().positive(),
+  exerciseId: z.int().check(z.positive()),
+  slotId: z.nullable(z.int().check(z.positive())),
+  toExerciseId: z.int().check(z.positive()),
 })
 export type SwapExerciseInput = z.infer<typeof swapExerciseSchema>
 
 /** Add an exercise (with its default sets for a role) to the running session. */
 export const addExerciseSchema = z.object({
-  exerciseId: z.number().int().positive(),
+  exerciseId: z.int().check(z.positive()),
   role: slotRoleSchema,
 })
 export type AddExerciseInput = z.infer<typeof addExerciseSchema>
 
 export const completeSessionSchema = z.object({
   completedAt: z.iso.datetime(),
-  note: z.string().trim().max(2000).nullable().default(null),
+  note: z._default(z.nullable(z.string().check(z.trim(), z.maxLength(2000))), null),
 })
 export type CompleteSessionInput = z.infer<typeof completeSessionSchema>
 
 export const recordSchema = z.object({
   kind: z.enum(['rep_record', 'e1rm_record']),
   loadKg: z.number(),
-  reps: z.number().int(),
+  reps: z.int(),
   e1rmKg: z.number(),
   /** The previous best it beats: reps at this load or more (rep record), or the best estimated 1RM. */
-  previous: z.number().nullable(),
+  previous: z.nullable(z.number()),
 })
 export type SessionRecord = z.infer<typeof recordSchema>
 
@@ -145,10 +145,10 @@ const reasonSchema = z.object({ code: z.string(), values: z.record(z.string(), z
 export const nextStepOptionSchema = z.object({
   action: z.enum(['add_rep', 'add_load', 'hold']),
   targetLoadKg: z.number(),
-  targetReps: z.number().int(),
-  repsMin: z.number().int(),
-  repsMax: z.number().int(),
-  workChangePct: z.number().nullable(),
+  targetReps: z.int(),
+  repsMin: z.int(),
+  repsMax: z.int(),
+  workChangePct: z.nullable(z.number()),
   reason: reasonSchema,
 })
 export type NextStepOptionView = z.infer<typeof nextStepOptionSchema>
@@ -159,52 +159,47 @@ export const plateauOptionSchema = z.object({
 })
 
 export const exerciseReportSchema = z.object({
-  exerciseId: z.number().int(),
-  slotId: z.number().int().nullable(),
+  exerciseId: z.int(),
+  slotId: z.nullable(z.int()),
   name: z.string(),
-  workingSets: z.number().int(),
+  workingSets: z.int(),
   volumeKg: z.number(),
-  bestE1rmKg: z.number().nullable(),
-  previousBestE1rmKg: z.number().nullable(),
+  bestE1rmKg: z.nullable(z.number()),
+  previousBestE1rmKg: z.nullable(z.number()),
   /** Change of this session's best estimated 1RM against last time's, in percent. */
-  e1rmChangePct: z.number().nullable(),
+  e1rmChangePct: z.nullable(z.number()),
   records: z.array(recordSchema),
-  nextStep: nextStepOptionSchema.nullable(),
-  alternative: nextStepOptionSchema.nullable(),
-  plateau: z.object({ exposuresWithoutImprovement: z.number().int(), options: z.array(plateauOptionSchema) }).nullable(),
+  nextStep: z.nullable(nextStepOptionSchema),
+  alternative: z.nullable(nextStepOptionSchema),
+  plateau: z.nullable(z.object({ exposuresWithoutImprovement: z.int(), options: z.array(plateauOptionSchema) })),
   /** What the lifter took for next time, once taken. */
-  taken: z
-    .object({
-      targetLoadKg: z.number(),
-      targetReps: z.number().int(),
-      status: z.enum(['taken', 'edited']),
-      /** Who chose it: the lifter, or their coach editing it. */
-      by: z.enum(['lifter', 'coach']).default('lifter'),
-    })
-    .nullable(),
+  taken: z.nullable(z.object({
+    targetLoadKg: z.number(),
+    targetReps: z.int(),
+    status: z.enum(['taken', 'edited']),
+    /** Who chose it: the lifter, or their coach editing it. */
+    by: z._default(z.enum(['lifter', 'coach']), 'lifter'),
+  })),
 })
 export type ExerciseReport = z.infer<typeof exerciseReportSchema>
 
 export const sessionReportSchema = z.object({
   session: sessionSummarySchema,
-  durationSec: z.number().int().nullable(),
+  durationSec: z.nullable(z.int()),
   exercises: z.array(exerciseReportSchema),
 })
 export type SessionReport = z.infer<typeof sessionReportSchema>
 
 /** Take (or edit) the next step of one or more exercises. */
 export const takeNextStepsSchema = z.object({
-  steps: z
-    .array(
+  steps: z.array(
       z.object({
-        exerciseId: z.number().int().positive(),
-        slotId: z.number().int().positive().nullable(),
+        exerciseId: z.int().check(z.positive()),
+        slotId: z.nullable(z.int().check(z.positive())),
         targetLoadKg: load,
-        targetReps: reps.min(1),
+        targetReps: reps.check(z.gte(1)),
         edited: z.boolean(),
       }),
-    )
-    .min(1)
-    .max(30),
+    ).check(z.minLength(1), z.maxLength(30)),
 })
 export type TakeNextStepsInput = z.infer<typeof takeNextStepsSchema>

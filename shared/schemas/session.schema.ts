@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from './zod'
 import { versionLabelSchema } from './version-label.schema'
 
 export { versionLabelSchema, type VersionLabel } from './version-label.schema'
@@ -12,51 +12,51 @@ export type SessionStatus = z.infer<typeof sessionStatusSchema>
 /** One logged (or planned) set. Loads are stored in kilograms at full precision. */
 export const setLogSchema = z.object({
   id: z.uuid(),
-  sessionId: z.number().int(),
-  exerciseId: z.number().int(),
+  sessionId: z.int(),
+  exerciseId: z.int(),
   exerciseName: z.string(),
-  position: z.number().int(),
+  position: z.int(),
   kind: setKindSchema,
-  targetLoadKg: z.number().nullable(),
-  targetRepsMin: z.number().int().nullable(),
-  targetRepsMax: z.number().int().nullable(),
+  targetLoadKg: z.nullable(z.number()),
+  targetRepsMin: z.nullable(z.int()),
+  targetRepsMax: z.nullable(z.int()),
   toFailure: z.boolean(),
-  loadKg: z.number().nullable(),
-  reps: z.number().int().nullable(),
-  rir: z.number().int().nullable(),
+  loadKg: z.nullable(z.number()),
+  reps: z.nullable(z.int()),
+  rir: z.nullable(z.int()),
   failure: z.boolean(),
-  note: z.string().nullable(),
-  loggedAt: z.string().nullable(),
+  note: z.nullable(z.string()),
+  loggedAt: z.nullable(z.string()),
   /** The form-check video attached to this set, if any. */
-  videoId: z.number().int().nullable(),
+  videoId: z.nullable(z.int()),
 })
 export type SetLog = z.infer<typeof setLogSchema>
 
 export const sessionSummarySchema = z.object({
-  id: z.number().int(),
-  athleteId: z.number().int(),
-  dayName: z.string().nullable(),
-  version: versionLabelSchema.nullable(),
+  id: z.int(),
+  athleteId: z.int(),
+  dayName: z.nullable(z.string()),
+  version: z.nullable(versionLabelSchema),
   status: sessionStatusSchema,
-  startedAt: z.string().nullable(),
-  completedAt: z.string().nullable(),
-  workingSets: z.number().int(),
+  startedAt: z.nullable(z.string()),
+  completedAt: z.nullable(z.string()),
+  workingSets: z.int(),
   volumeKg: z.number(),
   /** Rep and estimated-1RM records set in the session. */
-  records: z.number().int().default(0),
+  records: z._default(z.int(), 0),
 })
 export type SessionSummary = z.infer<typeof sessionSummarySchema>
 
-export const sessionDetailSchema = sessionSummarySchema.extend({
+export const sessionDetailSchema = z.extend(sessionSummarySchema, {
   /** The lifter's note on the whole session. */
-  note: z.string().nullable().default(null),
+  note: z._default(z.nullable(z.string()), null),
   sets: z.array(setLogSchema),
 })
 export type SessionDetail = z.infer<typeof sessionDetailSchema>
 
 export const listSessionsQuerySchema = z.object({
   /** A coach or admin names the athlete; a lifter sees their own. */
-  athleteId: z.coerce.number().int().positive().optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(50),
+  athleteId: z.optional(z.pipe(z.coerce.number(), z.int().check(z.positive()))),
+  limit: z._default(z.pipe(z.coerce.number(), z.int().check(z.gte(1), z.lte(200))), 50),
 })
 export type ListSessionsQuery = z.infer<typeof listSessionsQuerySchema>

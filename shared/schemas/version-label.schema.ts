@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from './zod'
 
 /**
  * Version I or II: the two alternating versions of a split day. In a module of its own because

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import {
   adminUserRowSchema,
   type AdminUpdateUserInput,

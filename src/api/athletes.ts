@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import { athleteRowSchema, type AthleteRow } from '@shared/schemas/athlete.schema'
 import { request } from './client'
 

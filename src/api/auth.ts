@@ -12,8 +12,7 @@ import { request } from './client'
 // the request that needs them, never at start-up (see client.ts).
 const authSchemas = () => import('@shared/schemas/auth.schema')
 const authResponseSchema = () => authSchemas().then((m) => m.authResponseSchema)
-/** `{ user }`: the auth response's user part, the same shared user schema. */
-const userEnvelopeSchema = () => authSchemas().then((m) => m.authResponseSchema.pick({ user: true }))
+const userEnvelopeSchema = () => authSchemas().then((m) => m.userEnvelopeSchema)
 
 export function register(input: RegisterInput): Promise<AuthResponse> {
   return request('POST', '/auth/register', { body: input, schema: authResponseSchema })

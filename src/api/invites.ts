@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import { userSchema, type User } from '@shared/schemas/auth.schema'
 import {
   invitePreviewSchema,
@@ -14,7 +14,7 @@ const inviteEnvelopeSchema = z.object({ invite: inviteSchema })
 const inviteListSchema = z.object({ invites: z.array(inviteSchema) })
 const previewEnvelopeSchema = z.object({ invite: invitePreviewSchema })
 /** A new lifter is signed in by the answer (token); an existing one already was (token null). */
-const acceptResponseSchema = z.object({ token: z.string().nullable(), user: userSchema })
+const acceptResponseSchema = z.object({ token: z.nullable(z.string()), user: userSchema })
 export type AcceptInviteResult = { token: string | null; user: User }
 
 /** Sends an invitation e-mail; 409 'not_a_lifter' or 'already_your_athlete'. */

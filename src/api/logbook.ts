@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import {
   importPreviewSchema,
   importResultSchema,
@@ -23,19 +23,19 @@ export const logbookExportSchema = z.object({
   sessions: z.array(
     z.object({
       date: z.string(),
-      completedAt: z.string().nullable(),
-      day: z.string().nullable(),
-      version: z.string().nullable(),
-      note: z.string().nullable(),
+      completedAt: z.nullable(z.string()),
+      day: z.nullable(z.string()),
+      version: z.nullable(z.string()),
+      note: z.nullable(z.string()),
       sets: z.array(
         z.object({
           exercise: z.string(),
           kind: setKindSchema,
-          loadKg: z.number().nullable(),
-          reps: z.number().int().nullable(),
-          rir: z.number().int().nullable(),
+          loadKg: z.nullable(z.number()),
+          reps: z.nullable(z.int()),
+          rir: z.nullable(z.int()),
           failure: z.boolean(),
-          note: z.string().nullable(),
+          note: z.nullable(z.string()),
         }),
       ),
     }),

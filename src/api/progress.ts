@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import { progressSchema, type BodyWeightInput, type Progress } from '@shared/schemas/athlete.schema'
 import { request } from './client'
 

@@ -1,12 +1,12 @@
-import { z } from 'zod'
+import { z } from '@shared/schemas/zod'
 import { request, requestForm } from './client'
 
 /** A form-check video attached to a logged set. */
 export const setVideoSchema = z.object({
-  id: z.number().int(),
+  id: z.int(),
   setLogId: z.string(),
   mimeType: z.string(),
-  sizeBytes: z.number().int(),
+  sizeBytes: z.int(),
   createdAt: z.string(),
 })
 export type SetVideo = z.infer<typeof setVideoSchema>

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import { ApiError, request, setAuthToken } from '@/api/client'
 import { signIn } from '@/api/auth'
 import { listSessions } from '@/api/sessions'

@@ -7,11 +7,11 @@ const dir = join(__dirname, '../../shared/domain')
 const files = readdirSync(dir).filter((f) => f.endsWith('.ts'))
 
 describe('shared/domain stays pure', () => {
-  it('imports nothing but zod and its own files', () => {
+  it('imports nothing but zod (its mini build) and its own files', () => {
     expect(files.length).toBeGreaterThan(5)
     for (const f of files) {
       const imports = [...readFileSync(join(dir, f), 'utf8').matchAll(/from '([^']+)'/g)].map((m) => m[1])
-      for (const spec of imports) expect(spec === 'zod' || spec.startsWith('./'), `${f} imports ${spec}`).toBe(true)
+      for (const spec of imports) expect(spec === 'zod/mini' || spec.startsWith('./'), `${f} imports ${spec}`).toBe(true)
     }
   })
 
