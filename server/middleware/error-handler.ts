@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import type { Logger } from 'pino'
-import { z } from 'zod/mini'
+import { z } from '@shared/schemas/zod'
 import { AppError } from '../errors'
 import { loggedUrl } from './request-log'
 import { toFieldIssues } from './validate'

@@ -1,5 +1,5 @@
 import type { RequestHandler } from 'express'
-import type { z } from 'zod/mini'
+import type { z } from '@shared/schemas/zod'
 import { AppError, type FieldIssue } from '../errors'
 
 type Schemas = { body?: z.ZodMiniType; query?: z.ZodMiniType; params?: z.ZodMiniType }

@@ -1,4 +1,4 @@
-import type { ZodMiniType } from 'zod/mini'
+import type { z } from '@shared/schemas/zod'
 import type { ApiErrorBody } from '@shared/schemas/common.schema'
 
 export type HttpMethod = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
@@ -32,7 +32,7 @@ export interface RequestOptions<T> {
   schema?: SchemaOrLoader<T>
 }
 
-export type SchemaOrLoader<T> = ZodMiniType<T> | (() => Promise<ZodMiniType<T>>)
+export type SchemaOrLoader<T> = z.ZodMiniType<T> | (() => Promise<z.ZodMiniType<T>>)
 
 /** The error body's schema, built the first time an error answer needs it. */
 const loadErrorBodySchema = () => import('@shared/schemas/common.schema').then((m) => m.apiErrorBodySchema)
@@ -103,7 +103,7 @@ export async function request<T = unknown>(
   if (!response.ok) throw await toApiError(response.status, body, response.statusText)
   if (!schema) return body as T
 
-  let checker: ZodMiniType<T>
+  let checker: z.ZodMiniType<T>
   try {
     checker = await schema
   } catch {

@@ -1,5 +1,5 @@
 import type { FieldRule } from 'vant'
-import type { ZodMiniType } from 'zod/mini'
+import type { z } from '@shared/schemas/zod'
 
 /**
  * A zod schema as a Vant field rule: the field is valid when the schema accepts its value,
@@ -9,8 +9,8 @@ import type { ZodMiniType } from 'zod/mini'
  * form on the app's first screen does not build zod schemas before it is drawn; the rule then
  * answers with a promise (Vant waits for it).
  */
-export function zodRule(schema: ZodMiniType | (() => Promise<ZodMiniType>), trigger: FieldRule['trigger'] = 'onSubmit'): FieldRule {
-  const check = (checker: ZodMiniType, value: unknown) => {
+export function zodRule(schema: z.ZodMiniType | (() => Promise<z.ZodMiniType>), trigger: FieldRule['trigger'] = 'onSubmit'): FieldRule {
+  const check = (checker: z.ZodMiniType, value: unknown) => {
     const result = checker.safeParse(value)
     return result.success ? true : (result.error.issues[0]?.message ?? 'Check this field')
   }
