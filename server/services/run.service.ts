@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import { Op, type Transaction } from 'sequelize'
+import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize'
 import { isLoadable, roundDownToLoadable } from '@shared/domain/equipment'
 import { backoffTarget, DEFAULT_REST_SECONDS, type SlotRole } from '@shared/domain/schemes'
 import { sessionTotals } from '@shared/domain/summary'
@@ -282,10 +282,7 @@ export async function logSet(lifter: UserModel, sessionId: number, setId: string
     if (set.kind === 'top' && set.loadKg !== null && set.reps !== null && set.reps > 0 && !set.skipped) {
       const gym = await gymOf(lifter)
       const equipment = equipmentOf(gym, exercise)
-      const backoffs = await SetLogModel.findAll({
-        where: { sessionId: session.id, exerciseId: set.exerciseId, slotId: set.slotId, kind: 'backoff', loggedAt: null, skipped: false },
-        transaction,
-      })
+      const backoffs = await openBackoffsOf(sequelize, set, transaction)
       for (const backoff of backoffs) {
         if (backoff.targetRepsMin === null || backoff.targetRepsMax === null) continue
         const target = backoffTarget({
@@ -298,6 +295,29 @@ export async function logSet(lifter: UserModel, sessionId: number, setId: string
     }
     return { set: toRunSet(set), updated: updated.map(toRunSet) }
   })
+}
+
+/**
+ * The back-offs a top set re-targets: its slot's unlogged, unskipped back-offs in its session.
+ * The unary `+` keeps SQLite's planner (no ANALYZE statistics) on the session index, a few
+ * dozen rows: offered the slot or exercise index, it took the slot's, which walks every set ever
+ * logged in that plan slot (45 ms a top set on the large demo club). `IS` matches a null slot.
+ * tests/server/set-log-upsert.test.ts checks the plan.
+ */
+function openBackoffsOf(sequelize: Sequelize, top: SetLogModel, transaction: Transaction) {
+  return sequelize.query<SetLogModel>(
+    `SELECT * FROM set_logs
+     WHERE session_id = $sessionId AND +exercise_id = $exerciseId AND +slot_id IS $slotId
+       AND kind = 'backoff' AND logged_at IS NULL AND skipped = 0
+     ORDER BY position`,
+    {
+      bind: { sessionId: top.sessionId, exerciseId: top.exerciseId, slotId: top.slotId },
+      model: SetLogModel,
+      mapToModel: true,
+      type: QueryTypes.SELECT,
+      transaction,
+    },
+  )
 }
 
 /** An exercise the lifter may use (not another coach's own), or with `sessionId` one already in that session. */

@@ -127,6 +127,9 @@ describe('PUT /api/sessions/:id/sets/:setId', () => {
     // back-off range) = 78 / 1.4 = 55.71 kg [C]. The IWF 20 kg bar with two 2.5 kg collars makes
     // 25 kg + 2 x (plates per side); 15 kg a side (55 kg) fits under 55.71, 15.5 (56 kg) does not.
     expect(updated.targetLoadKg).toBe(55)
+    // The re-targeted back-off reads back as any other set does (types included: booleans, dates).
+    const run = await request(t.app).get(`/api/sessions/${session.id}/run`).set(auth.ana)
+    expect(updated).toEqual(run.body.session.sets.find((s: RunSet) => s.id === backoff.id))
   })
 
   it("refuses another lifter (404) and the coach (403), and changes nothing", async () => {

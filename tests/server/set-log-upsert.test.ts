@@ -158,4 +158,28 @@ describe('the one-statement set log', () => {
     expect(details.some((d) => d.includes('set_logs_exercise_id'))).toBe(false)
     expect(details.some((d) => /^SCAN /.test(d))).toBe(false)
   })
+  it("re-targets a top set's back-offs reading the session's sets through the session index, not a slot's or exercise's history", async () => {
+    // Without ANALYZE statistics SQLite's planner takes any usable index; for the back-off lookup
+    // it took the slot index, which walks every set ever logged in that plan slot: 45 ms a top
+    // set on the large demo club (a plan slot shared by the club over two years).
+    const top = session.sets.find((s) => s.kind === 'top')!
+    const statements: string[] = []
+    const options = (SetLogModel.sequelize as unknown as { options: { logging: unknown } }).options
+    const before = options.logging
+    options.logging = (sql: string) => statements.push(sql.replace(/^Execut(?:ing|ed) \([^)]*\): /, ''))
+    try {
+      const res = await put(top.id, body(top, { reps: (top.targetRepsMin ?? 5) + 1, rir: 1 }))
+      expect(res.status).toBe(200)
+    } finally {
+      options.logging = before
+    }
+    const reads = statements.filter((sql) => /^SELECT [\s\S]* FROM `?set_logs`?/.test(sql))
+    expect(reads.length).toBeGreaterThan(0)
+    for (const sql of reads) {
+      const plan = await SetLogModel.sequelize!.query<{ detail: string }>(`EXPLAIN QUERY PLAN ${sql}`, { type: QueryTypes.SELECT })
+      const onSetLogs = plan.map((row) => row.detail).filter((d) => /^(SEARCH|SCAN) /.test(d))
+      expect(onSetLogs.length, sql).toBeGreaterThan(0)
+      for (const detail of onSetLogs) expect(detail, sql).toMatch(/USING (INDEX set_logs_session_id_position \(session_id=\?|INDEX sqlite_autoindex_set_logs_1 \(id=\?\))/)
+    }
+  })
 })
