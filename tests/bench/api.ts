@@ -1,12 +1,14 @@
 /**
  * 4. API throughput and latency: autocannon on loopback against the production server over the
- * large demo club, next to a bare Express JSON route measured in the same run.
+ * large demo club, next to a bare Express JSON route measured in the same run, and next to the
+ * floor of a set log on this stack (floor-server.ts: Express, token check, user read and the same
+ * upsert on the same database file, nothing else).
  *
  * Run alone: `tsx tests/bench/api.ts` (needs a build in dist/, or CHALKLINE_DIST).
  */
 import { spawn } from 'node:child_process'
 import { randomUUID } from 'node:crypto'
-import { join } from 'node:path'
+import { dirname, join } from 'node:path'
 import autocannon from 'autocannon'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
 import type { RunSession, RunSet } from '../../shared/schemas/run.schema'
@@ -45,6 +47,8 @@ export interface Lifter {
 
 export interface ApiWorld {
   server: ProductionServer
+  /** The server's database file (a copy of the large club); its JWT secret is beside it. */
+  databasePath: string
   bareUrl: string
   coachToken: string
   lifters: Lifter[]
@@ -122,7 +126,7 @@ export async function openApiWorld(ctx: BenchContext, name: string): Promise<Api
       bare.stdout!.once('data', () => resolve())
       bare.once('exit', (code) => reject(new Error(`bare server exited with ${code}`)))
     })
-    return await signInEveryone(server, `http://127.0.0.1:${barePort}`, stopBare)
+    return await signInEveryone(server, path, `http://127.0.0.1:${barePort}`, stopBare)
   } catch (error) {
     await server.stop()
     await stopBare()
@@ -130,7 +134,7 @@ export async function openApiWorld(ctx: BenchContext, name: string): Promise<Api
   }
 }
 
-async function signInEveryone(server: ProductionServer, bareUrl: string, stopBare: () => Promise<void>): Promise<ApiWorld> {
+async function signInEveryone(server: ProductionServer, databasePath: string, bareUrl: string, stopBare: () => Promise<void>): Promise<ApiWorld> {
   const today = new Date().toISOString().slice(0, 10)
   const coachToken = await signIn(server.baseUrl, DEMO_ACCOUNTS.coach.email)
   const athletes: { email: string }[] = (await json(await fetch(`${server.baseUrl}/api/athletes`, { headers: authed(coachToken) }))).athletes
@@ -146,7 +150,31 @@ async function signInEveryone(server: ProductionServer, bareUrl: string, stopBar
     if (!template) throw new Error(`no sets in the session of ${athlete.email}`)
     lifters.push({ token, sessionId: session.id, template, topSet: session.sets.find((s) => s.kind === 'top'), nextPosition: 10_000 })
   }
-  return { server, bareUrl, coachToken, lifters, today, stopBare }
+  return { server, databasePath, bareUrl, coachToken, lifters, today, stopBare }
+}
+
+/**
+ * The floor baseline (floor-server.ts) on the server's own database file and JWT secret, so the
+ * same requests and tokens work on both. Runs are sequential, so the two never write at once.
+ */
+async function startFloor(ctx: BenchContext, world: ApiWorld): Promise<{ url: string; stop: () => Promise<void> }> {
+  const port = await freePort()
+  const floor = spawn(process.execPath, ['--import', 'tsx', join(ctx.root, 'tests/bench/floor-server.ts')], {
+    cwd: ctx.root,
+    env: { ...process.env, PORT: String(port), DATABASE_PATH: world.databasePath, JWT_SECRET_FILE: join(dirname(world.databasePath), 'jwt-secret') },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  })
+  const stop = async () => {
+    if (floor.exitCode !== null || floor.signalCode !== null) return
+    const exited = new Promise((r) => floor.once('exit', r))
+    floor.kill('SIGTERM')
+    await exited
+  }
+  await new Promise<void>((resolve, reject) => {
+    floor.stdout!.once('data', () => resolve())
+    floor.once('exit', (code) => reject(new Error(`floor server exited with ${code}`)))
+  })
+  return { url: `http://127.0.0.1:${port}`, stop }
 }
 
 function summarise(name: string, r: autocannon.Result): Measured {
@@ -233,8 +261,10 @@ const fmt = (n: number, digits = 1) => n.toFixed(digits)
 
 export async function run(ctx: BenchContext): Promise<BenchPart> {
   const world = await openApiWorld(ctx, 'api')
+  let floor: Awaited<ReturnType<typeof startFloor>> | null = null
   try {
     const { server, bareUrl } = world
+    floor = await startFloor(ctx, world)
     ctx.log('api: warm-up')
     await cannon('warm-up', { url: server.baseUrl, duration: 3, requests: todayGets(world) })
     await cannon('warm-up', { url: bareUrl + '/bare', duration: 2 })
@@ -242,6 +272,8 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
     ctx.log('api: maximum throughput, 10 connections, 10 s each')
     const bareGet = await cannon('Bare Express: GET JSON', { url: bareUrl + '/bare' })
     const barePut = await cannon('Bare Express: PUT JSON body', { url: bareUrl, requests: barePuts(world) })
+    const floorPut = await cannon('Floor: PUT a set log with nothing but Express, the token check, the user read and the upsert', { url: floor.url, requests: setPuts(world) })
+    await floor.stop()
     const setPut = await cannon('PUT a set log', { url: server.baseUrl, requests: setPuts(world) })
     const topPut = await cannon('PUT a top set (re-targets its back-offs in a transaction)', { url: server.baseUrl, requests: topSetPuts(world) })
     const health = await cannon('GET /api/health (middleware only: log, headers, compression)', { url: `${server.baseUrl}/api/health` })
@@ -266,9 +298,10 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       url: bareUrl, requests: barePuts(world), overallRate: FIXED_RATE, duration: FIXED_RATE_DURATION_S,
     })
 
-    const maxRuns = [bareGet, barePut, setPut, topPut, health, today, athletes]
+    const maxRuns = [bareGet, barePut, floorPut, setPut, topPut, health, today, athletes]
     const ratioPut = setPut.requestsPerSecond / barePut.requestsPerSecond
     const ratioGet = setPut.requestsPerSecond / bareGet.requestsPerSecond
+    const ratioFloor = floorPut.requestsPerSecond / barePut.requestsPerSecond
     const errors = [...maxRuns, setAtRate, bareAtRate].reduce((n, m) => n + m.errors + m.non2xx, 0) + setPaced.failures + barePaced.failures
     const row = (m: Measured, ratio?: number) =>
       `| ${m.name} | ${fmt(m.requestsPerSecond, 0)} | ${ratio === undefined ? '' : fmt(ratio * 100, 0) + ' %'} | ${fmt(m.p50Ms)} | ${fmt(m.p99Ms)} | ${fmt(m.maxMs)} | ${m.requests} | ${m.errors + m.non2xx} |`
@@ -281,6 +314,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       '|---|---:|---:|---:|---:|---:|---:|---:|',
       row(bareGet, 1),
       row(barePut, barePut.requestsPerSecond / bareGet.requestsPerSecond),
+      row(floorPut, ratioFloor),
       row(setPut, ratioPut),
       row(topPut, topPut.requestsPerSecond / barePut.requestsPerSecond),
       row(health, health.requestsPerSecond / bareGet.requestsPerSecond),
@@ -288,6 +322,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       row(athletes, athletes.requestsPerSecond / bareGet.requestsPerSecond),
       '',
       `"vs bare": set logging against the bare PUT-with-JSON-body route; GET rows against the bare GET route. Set logging is ${fmt(ratioGet * 100, 0)} % of the bare GET route.`,
+      `The floor row is \`tests/bench/floor-server.ts\`: the same set-log requests and tokens against Express 5 with its JSON parser, jsonwebtoken's check, the user read by id and the app's own upsert statement through node-sqlite3 on the same database file, and nothing else (no Sequelize, log, headers, compression or body check). It is what this stack and this machine allow a set log at best: ${fmt(ratioFloor * 100, 0)} % of the bare PUT in this run, and the real set log is ${fmt((setPut.requestsPerSecond / floorPut.requestsPerSecond) * 100, 0)} % of the floor.`,
       'The budgeted row is "PUT a set log" (a back-off or any set but a top set: one upsert statement). A top set is logged about once per exercise and takes the transactional path. The health row is the same server with no sign-in check and no database: what the middleware every request passes through costs by itself.',
       '',
       `Fixed rate, ${FIXED_RATE} req/s for ${FIXED_RATE_DURATION_S} s, evenly spaced (the budgeted row): request i is sent at start + i × ${1000 / FIXED_RATE} ms whether or not earlier answers are back, over keep-alive connections, and its latency counts from that due moment (\`tests/bench/paced-load.ts\`, in a worker thread of its own).`,
@@ -310,7 +345,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       title: '4. API throughput and latency',
       command: 'npm run bench -- --only api',
       markdown,
-      figures: { connections: CONNECTIONS, durationS: DURATION_S, athleteCount, lifters: world.lifters.length, maxRuns, setPaced, barePaced, setAtRate, bareAtRate, ratioSetToBarePut: ratioPut, ratioSetToBareGet: ratioGet },
+      figures: { connections: CONNECTIONS, durationS: DURATION_S, athleteCount, lifters: world.lifters.length, maxRuns, setPaced, barePaced, setAtRate, bareAtRate, ratioSetToBarePut: ratioPut, ratioSetToBareGet: ratioGet, ratioFloorToBarePut: ratioFloor, ratioSetToFloor: setPut.requestsPerSecond / floorPut.requestsPerSecond },
       budgets: [
         budget({ name: 'Set logging throughput vs bare Express PUT', value: ratioPut * 100, limit: 50, unit: '%', kind: 'min' }),
         budget({ name: `Set logging p99 at ${FIXED_RATE} req/s (evenly spaced)`, value: setPaced.p99Ms, limit: 25, unit: 'ms', kind: 'max', strict: true }),
@@ -318,6 +353,7 @@ export async function run(ctx: BenchContext): Promise<BenchPart> {
       ],
     }
   } finally {
+    await floor?.stop()
     await world.server.stop()
     await world.stopBare()
   }
