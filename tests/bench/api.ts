@@ -6,13 +6,12 @@
  *
  * Run alone: `tsx tests/bench/api.ts` (needs a build in dist/, or CHALKLINE_DIST).
  */
-import { spawn } from 'node:child_process'
 import { randomUUID } from 'node:crypto'
 import { dirname, join } from 'node:path'
 import autocannon from 'autocannon'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
 import type { RunSession, RunSet } from '../../shared/schemas/run.schema'
-import { freePort } from '../helpers/server-process'
+import { startBaselineProcess, type BaselineProcess } from './baseline-process'
 import { budget, type BenchContext, type BenchPart } from './bench-types'
 import { largeDatabaseCopy } from './large-db'
 import { pacedLoadInWorker, type PacedRequest, type PacedResult } from './paced-load'
@@ -110,26 +109,13 @@ export async function openApiWorld(ctx: BenchContext, name: string): Promise<Api
   const { path } = await largeDatabaseCopy(ctx, name)
   // Signing in the benchmark's 21 users from one address would trip the per-address limit.
   const server = await startProductionServer(ctx.distDir, path, join(ctx.workDir, `${name}-server.log`), { RATE_LIMIT_AUTH: '1000' })
-  const barePort = await freePort()
-  const bare = spawn(process.execPath, [join(ctx.root, 'tests/bench/bare-server.mjs')], {
-    env: { ...process.env, PORT: String(barePort) },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  })
-  const stopBare = async () => {
-    if (bare.exitCode !== null || bare.signalCode !== null) return
-    const exited = new Promise((r) => bare.once('exit', r))
-    bare.kill('SIGTERM')
-    await exited
-  }
+  let bare: BaselineProcess | null = null
   try {
-    await new Promise<void>((resolve, reject) => {
-      bare.stdout!.once('data', () => resolve())
-      bare.once('exit', (code) => reject(new Error(`bare server exited with ${code}`)))
-    })
-    return await signInEveryone(server, path, `http://127.0.0.1:${barePort}`, stopBare)
+    bare = await startBaselineProcess(ctx.root, ['tests/bench/bare-server.mjs'])
+    return await signInEveryone(server, path, bare.url, bare.stop)
   } catch (error) {
     await server.stop()
-    await stopBare()
+    await bare?.stop()
     throw error
   }
 }
@@ -157,24 +143,11 @@ async function signInEveryone(server: ProductionServer, databasePath: string, ba
  * The floor baseline (floor-server.ts) on the server's own database file and JWT secret, so the
  * same requests and tokens work on both. Runs are sequential, so the two never write at once.
  */
-async function startFloor(ctx: BenchContext, world: ApiWorld): Promise<{ url: string; stop: () => Promise<void> }> {
-  const port = await freePort()
-  const floor = spawn(process.execPath, ['--import', 'tsx', join(ctx.root, 'tests/bench/floor-server.ts')], {
-    cwd: ctx.root,
-    env: { ...process.env, PORT: String(port), DATABASE_PATH: world.databasePath, JWT_SECRET_FILE: join(dirname(world.databasePath), 'jwt-secret') },
-    stdio: ['ignore', 'pipe', 'inherit'],
+function startFloor(ctx: BenchContext, world: ApiWorld): Promise<BaselineProcess> {
+  return startBaselineProcess(ctx.root, ['--import', 'tsx', 'tests/bench/floor-server.ts'], {
+    DATABASE_PATH: world.databasePath,
+    JWT_SECRET_FILE: join(dirname(world.databasePath), 'jwt-secret'),
   })
-  const stop = async () => {
-    if (floor.exitCode !== null || floor.signalCode !== null) return
-    const exited = new Promise((r) => floor.once('exit', r))
-    floor.kill('SIGTERM')
-    await exited
-  }
-  await new Promise<void>((resolve, reject) => {
-    floor.stdout!.once('data', () => resolve())
-    floor.once('exit', (code) => reject(new Error(`floor server exited with ${code}`)))
-  })
-  return { url: `http://127.0.0.1:${port}`, stop }
 }
 
 function summarise(name: string, r: autocannon.Result): Measured {
@@ -261,7 +234,7 @@ const fmt = (n: number, digits = 1) => n.toFixed(digits)
 
 export async function run(ctx: BenchContext): Promise<BenchPart> {
   const world = await openApiWorld(ctx, 'api')
-  let floor: Awaited<ReturnType<typeof startFloor>> | null = null
+  let floor: BaselineProcess | null = null
   try {
     const { server, bareUrl } = world
     floor = await startFloor(ctx, world)

@@ -1,4 +1,3 @@
-import { spawn, type ChildProcess } from 'node:child_process'
 import { randomUUID } from 'node:crypto'
 import { writeFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
@@ -8,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
 import { seedDemo } from '../../server/db/seed/demo'
 import type { RunSession, RunSet } from '../../shared/schemas/run.schema'
-import { freePort } from '../helpers/server-process'
+import { startBaselineProcess, type BaselineProcess } from '../bench/baseline-process'
 import { createTestApp, type TestApp } from '../helpers/test-app'
 
 /**
@@ -17,7 +16,7 @@ import { createTestApp, type TestApp } from '../helpers/test-app'
  * same request and token, and it refuses what the real server refuses on the token.
  */
 let t: TestApp
-let floor: ChildProcess
+let floor: BaselineProcess | undefined
 let floorUrl: string
 let token: string
 let session: RunSession
@@ -49,26 +48,15 @@ beforeAll(async () => {
   session = (await request(t.app).post('/api/sessions').query(TODAY).set({ Authorization: `Bearer ${token}` }).send({})).body.session
   const secretFile = join(t.dir, 'floor-jwt-secret')
   writeFileSync(secretFile, t.config.jwtSecret + '\n')
-  const port = await freePort()
-  floorUrl = `http://127.0.0.1:${port}`
-  const root = resolve(__dirname, '../..')
-  floor = spawn(process.execPath, ['--import', 'tsx', join(root, 'tests/bench/floor-server.ts')], {
-    cwd: root,
-    env: { ...process.env, PORT: String(port), DATABASE_PATH: t.config.databasePath, JWT_SECRET_FILE: secretFile },
-    stdio: ['ignore', 'pipe', 'inherit'],
+  floor = await startBaselineProcess(resolve(__dirname, '../..'), ['--import', 'tsx', 'tests/bench/floor-server.ts'], {
+    DATABASE_PATH: t.config.databasePath,
+    JWT_SECRET_FILE: secretFile,
   })
-  await new Promise<void>((ready, failed) => {
-    floor.stdout!.once('data', () => ready())
-    floor.once('exit', (code) => failed(new Error(`floor server exited with ${code}`)))
-  })
+  floorUrl = floor.url
 })
 
 afterAll(async () => {
-  if (floor && floor.exitCode === null) {
-    const exited = new Promise((r) => floor.once('exit', r))
-    floor.kill('SIGTERM')
-    await exited
-  }
+  await floor?.stop()
   await t?.close()
 })
 
