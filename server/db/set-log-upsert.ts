@@ -51,12 +51,15 @@ export function asStoredDate(date: Date) {
   return date.toISOString().replace('T', ' ').replace('Z', ' +00:00')
 }
 
-export async function upsertOwnSetLog(
-  sequelize: Sequelize,
-  key: { lifterId: number; sessionId: number; setId: string },
-  input: LogSetInput,
-): Promise<boolean> {
-  const bind = {
+export interface OwnSetKey {
+  lifterId: number
+  sessionId: number
+  setId: string
+}
+
+/** UPSERT_OWN_SET's parameters (names without the `$`) for one set log, dates in stored form. */
+export function upsertOwnSetParams(key: OwnSetKey, input: LogSetInput, now = new Date()) {
+  return {
     id: key.setId, sessionId: key.sessionId, lifterId: key.lifterId,
     exerciseId: input.exerciseId, slotId: input.slotId, position: input.position, kind: input.kind,
     targetLoadKg: input.targetLoadKg, targetRepsMin: input.targetRepsMin, targetRepsMax: input.targetRepsMax,
@@ -64,8 +67,12 @@ export async function upsertOwnSetLog(
     reps: input.reps, rir: input.rir, failure: input.failure, skipped: input.skipped, note: input.note,
     loggedAt: input.loggedAt ? asStoredDate(new Date(input.loggedAt)) : null,
     editedAt: asStoredDate(new Date(input.editedAt)),
-    now: asStoredDate(new Date()),
+    now: asStoredDate(now),
   }
+}
+
+export async function upsertOwnSetLog(sequelize: Sequelize, key: OwnSetKey, input: LogSetInput): Promise<boolean> {
+  const bind = upsertOwnSetParams(key, input)
   const changes = await writeWithOthers(sequelize, () => prepared(sequelize, UPSERT_OWN_SET).run(bind))
   return changes === 1
 }

@@ -16,7 +16,8 @@ import { readFileSync } from 'node:fs'
 import express from 'express'
 import jwt from 'jsonwebtoken'
 import sqlite3 from 'sqlite3'
-import { asStoredDate, UPSERT_OWN_SET } from '../../server/db/set-log-upsert'
+import { UPSERT_OWN_SET, upsertOwnSetParams } from '../../server/db/set-log-upsert'
+import type { LogSetInput } from '../../shared/schemas/run.schema'
 
 const db = new sqlite3.Database(process.env.DATABASE_PATH!)
 const secret = createSecretKey(Buffer.from(readFileSync(process.env.JWT_SECRET_FILE!, 'utf8').trim()))
@@ -61,23 +62,16 @@ app.put('/api/sessions/:id/sets/:setId', async (req, res) => {
     res.status(401).json({ error: 'invalid_token' })
     return
   }
-  const b = req.body
-  const bind = {
-    $id: req.params.setId, $sessionId: Number(req.params.id), $lifterId: Number(claims.sub),
-    $exerciseId: b.exerciseId, $slotId: b.slotId, $position: b.position, $kind: b.kind,
-    $targetLoadKg: b.targetLoadKg, $targetRepsMin: b.targetRepsMin, $targetRepsMax: b.targetRepsMax,
-    $targetReps: b.targetReps, $toFailure: b.toFailure, $targetRir: b.targetRir, $loadKg: b.loadKg,
-    $reps: b.reps, $rir: b.rir, $failure: b.failure, $skipped: b.skipped, $note: b.note,
-    $loggedAt: b.loggedAt ? asStoredDate(new Date(b.loggedAt)) : null,
-    $editedAt: asStoredDate(new Date(b.editedAt)),
-    $now: asStoredDate(new Date()),
-  }
+  const input = req.body as LogSetInput
+  const params = upsertOwnSetParams({ setId: req.params.setId, sessionId: Number(req.params.id), lifterId: Number(claims.sub) }, input)
+  // node-sqlite3 names bound parameters with their prefix (as server/db/statement-pool.ts does).
+  const bind = Object.fromEntries(Object.entries(params).map(([k, v]) => [`$${k}`, v]))
   // The real server falls back to its general path when nothing changed; the floor has none.
   if ((await runUpsert(bind)) !== 1) {
     res.status(409).json({ error: 'not_upserted' })
     return
   }
-  res.json({ set: { id: req.params.setId, ...b }, updated: [] })
+  res.json({ set: { id: req.params.setId, ...input }, updated: [] })
 })
 
 const server = app.listen(Number(process.env.PORT), '127.0.0.1', () => {

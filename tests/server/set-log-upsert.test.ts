@@ -161,7 +161,7 @@ describe('the one-statement set log', () => {
   it("re-targets a top set's back-offs reading the session's sets through the session index, not a slot's or exercise's history", async () => {
     // Without ANALYZE statistics SQLite's planner takes any usable index; for the back-off lookup
     // it took the slot index, which walks every set ever logged in that plan slot: 45 ms a top
-    // set on the large demo club (a plan slot shared by the club over two years).
+    // set on the large demo club, where a plan slot holds years of sets.
     const top = session.sets.find((s) => s.kind === 'top')!
     const statements: string[] = []
     const options = (SetLogModel.sequelize as unknown as { options: { logging: unknown } }).options
