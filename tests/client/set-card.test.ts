@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { mount } from '@vue/test-utils'
-import { LB_GYM_SET } from '@shared/domain/equipment'
+import { KG_GYM_SET, LB_GYM_SET } from '@shared/domain/equipment'
 import { PLATE_COLOUR_HEX } from '@shared/domain/plates'
 import { plateChange } from '@shared/domain/warmup'
 import SetCard from '@/components/session/SetCard.vue'
@@ -95,6 +95,36 @@ describe('SetCard', () => {
     expect(mountCard(warmup1, warmup1.targetLoadKg, 'kg', byCoach).find('[data-testid="set-by-coach"]').exists()).toBe(false)
     expect(mountCard(backoffSet, backoffSet.targetLoadKg, 'kg', byCoach).find('[data-testid="set-by-coach"]').exists()).toBe(false)
     expect(mountCard(topSet, topSet.targetLoadKg, 'kg', { ...benchPress, nextStepBy: 'lifter' }).find('[data-testid="set-by-coach"]').exists()).toBe(false)
+  })
+
+  it('says the load includes the collars when the gym counts them, and draws the outer collar', () => {
+    // IWF: collars weigh 2.5 kg each and count in the total (IWF Technical and Competition Rules).
+    const card = mountCard()
+    const plates = card.get('[data-testid="set-plates"]')
+
+    expect(plates.get('[data-testid="collar-note"]').text()).toBe('· incl. 2 × 2.5 kg collars')
+    expect(plates.get('figcaption').text()).toBe('Each side: 25 kg, 10 kg, 2.5 kg · incl. 2 × 2.5 kg collars')
+    expect(plates.get('svg').attributes('aria-label')).toBe('Each side: 25 kg, 10 kg, 2.5 kg, incl. 2 × 2.5 kg collars')
+    const collar = plates.get('[data-testid="set-plates-collar"]')
+    const lastDisc = card.findAll('.set-card-plates__disc').at(-1)!
+    expect(Number(collar.attributes('x'))).toBeGreaterThan(Number(lastDisc.attributes('x')) + Number(lastDisc.attributes('width')))
+  })
+
+  it('reads "Empty bar" with the collar note on the bare bar plus collars', () => {
+    // 25 kg = the 20 kg bar + 2 x 2.5 kg collars (IWF), no plates.
+    const caption = mountCard(warmup1).get('[data-testid="set-plates"] figcaption')
+
+    expect(caption.text()).toBe('Empty bar · incl. 2 × 2.5 kg collars')
+  })
+
+  it('says nothing of collars when the gym does not count them', () => {
+    // KG_GYM_SET: 20 kg bar, collars not counted; 100 kg = 20 + 2 x 40, 40 = 25 + 15 a side (arithmetic).
+    const card = mountCard(topSet, 100, 'kg', { ...benchPress, equipment: KG_GYM_SET })
+
+    expect(plateMasses(card)).toEqual([25, 15])
+    expect(card.get('[data-testid="set-plates"] figcaption').text()).toBe('Each side: 25 kg, 15 kg')
+    expect(card.find('[data-testid="collar-note"]').exists()).toBe(false)
+    expect(card.find('[data-testid="set-plates-collar"]').exists()).toBe(false)
   })
 
   it('shows no plates for a stack exercise', () => {
