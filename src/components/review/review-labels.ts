@@ -29,7 +29,7 @@ export function flagText(flag: ReviewFlagView, repsMax: number | null = null): s
     case 'plateau':
       return `Plateau: ${name} (${plural(v.exposures ?? 0, 'session', 'sessions')})`
     case 'regression':
-      return `Regression: ${name} ${signedPercent(-(v.dropPct ?? 0))}`
+      return `Regression: ${name} estimated 1RM ${signedPercent(v.e1rmChangePct ?? 0)}`
     case 'top_set_far_short': {
       const max = repsMax ?? v.repsMax ?? null
       const range = max !== null && max !== v.repsMin ? `${v.repsMin}–${max}` : `${v.repsMin}+`
