@@ -58,7 +58,8 @@ export async function listExercises(viewer: UserModel, query: ListExercisesQuery
 export async function createExercise(owner: UserModel, input: CreateExerciseInput): Promise<Exercise> {
   const clash = await ExerciseModel.findOne({ where: { name: input.name, [Op.or]: [{ ownerId: null }, { ownerId: owner.id }] } })
   if (clash) throw AppError.conflict('exercise_exists', 'An exercise with this name is already in your library')
-  return toExercise(await ExerciseModel.create({ ...input, ownerId: owner.id }))
+  const loadMode = input.loadMode ?? (input.equipmentKind === 'bodyweight' ? 'bodyweight' : 'external')
+  return toExercise(await ExerciseModel.create({ ...input, loadMode, ownerId: owner.id }))
 }
 
 /**

@@ -11,6 +11,7 @@ import type {
   AddExerciseInput, CompleteSessionInput, LogSetInput, RunSession, RunSet, StartFromRecentSetInput, StartSessionInput,
   SwapExerciseInput, TakeNextStepsInput,
 } from '@shared/schemas/run.schema'
+import type { ExerciseEquipment } from '@shared/schemas/exercise.schema'
 import type { TodayQuery } from '@shared/schemas/train.schema'
 import {
   AssignmentModel, CommentModel, DayVersionModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel,
@@ -176,6 +177,7 @@ export async function runSessionView(session: SessionModel, athlete: UserModel):
         role,
         restSec: (slotId !== null ? slotRest.get(slotId) : undefined) ?? DEFAULT_REST_SECONDS[role],
         equipment: liftOf(gym, exercise).equipment,
+        equipmentKind: exercise.equipmentKind as ExerciseEquipment,
         loadMode: loadModeOf(exercise),
         bodyMassKg: loadModeOf(exercise) === 'external' ? null : bodyMassKg,
         lastTime: (blockHistory?.exposures.filter((e) => !e.deload).at(-1)?.sets ?? last?.sets ?? []).map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps, rir: s.rir ?? null })),
@@ -495,7 +497,14 @@ export async function takeNextSteps(viewer: UserModel, sessionId: number, input:
         })
         await adjustment.update({ extraSets: adjustment.extraSets + 1, changedBy: viewer.id }, { transaction })
       }
-      if (step.option === 'rotate_version' && previousOption !== 'rotate_version') await rotateVersionFor(athlete, session, viewer, transaction)
+      // One rotation per session: taking it on a second lift of the same day's version changes nothing more.
+      if (step.option === 'rotate_version' && previousOption !== 'rotate_version') {
+        const rotatedAlready = await NextStepModel.count({
+          where: { sessionId, option: 'rotate_version', exerciseId: { [Op.ne]: step.exerciseId } },
+          transaction,
+        })
+        if (rotatedAlready === 0) await rotateVersionFor(athlete, session, viewer, transaction)
+      }
     }
   })
   return buildReport(session, athlete)

@@ -198,7 +198,8 @@ export function planSlotSets(input: SlotPlanInput): PlannedSet[] {
       const below = moved(prev.target) * (1 - (s.loadStepDownPct ?? 0) / 100)
       const prevEstimate = setE1rmKg({ loadKg: prev.target.loadKg, reps: prev.targetReps, rir: prev.targetRir ?? 0 }, today) ?? estimate
       const target = loadable(Math.min(below, prevEstimate ? loadForReps(prevEstimate, s.repsMin + reserveOf(s)) : below))
-      const reps = prevEstimate ? Math.floor(30 * (prevEstimate / Math.max(moved(target), 1e-9) - 1)) - reserveOf(s) : s.repsMin
+      // Epley inverted; the small epsilon keeps 15.999... (float noise) from losing a whole rep.
+      const reps = prevEstimate ? Math.floor(30 * (prevEstimate / Math.max(moved(target), 1e-9) - 1) + 1e-9) - reserveOf(s) : s.repsMin
       return push(target, reps, s.kind === 'straight' && i >= scheme.sets.length ? 'added_set' : 'step_down')
     }
     if (estimate !== null && estimate > 0) {

@@ -202,8 +202,20 @@ function option(
   }
 }
 
+/** Built property by property: an object spread here was most of the engine's time over a long logbook. */
 function asStep(o: NextStepOption, policy: ProgressionPolicy, alternative: NextStepOption | null): NextStep {
-  return { ...o, policy, alternative }
+  return {
+    action: o.action,
+    target: o.target,
+    targetReps: o.targetReps,
+    repsMin: o.repsMin,
+    repsMax: o.repsMax,
+    workChangePct: o.workChangePct,
+    gain: o.gain,
+    reason: o.reason,
+    policy,
+    alternative,
+  }
 }
 
 const clamp = (n: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, n))
@@ -223,8 +235,11 @@ function repsToMatch(e1rmKg: number | null, movedKg: number | null, plannedRir: 
  * was missed twice (the set at `index` of each exposure, oldest first).
  */
 export function missedOneMoreRepTwice(history: readonly Exposure[], index: number): boolean {
-  if (history.length < 3) return false
-  const [a, b, c] = history.slice(-3).map((e) => e.sets[index])
+  const n = history.length
+  if (n < 3) return false
+  const a = history[n - 3].sets[index]
+  const b = history[n - 2].sets[index]
+  const c = history[n - 1].sets[index]
   if (!a || !b || !c) return false
   return sameLoad(a.loadKg, b.loadKg) && sameLoad(b.loadKg, c.loadKg) && b.reps <= a.reps && c.reps <= b.reps
 }
@@ -545,15 +560,11 @@ export function detectPlateau(exposures: readonly Exposure[], context: PlateauCo
   const reading = (e: Exposure): LoadReading => ({ mode, bodyMassKg: e.bodyMassKg ?? null })
   const best = (e: Exposure) => bestE1rmKg(e.sets, reading(e), formula)
 
-  // Exposures in a row (latest last) that did not beat the one before.
-  let streak = 0
-  for (let i = history.length - 1; i > 0; i--) {
-    const now = history[i]
-    const before = history[i - 1]
-    const beat = now.sets.some((s, k) => before.sets[k] !== undefined && beatsAcrossDays(s, now, before.sets[k], before, mode))
-    if (beat) break
-    streak += 1
-  }
+  // The latest exposure beat the one before it (more load or more reps): never a plateau that day.
+  const latestBeat = history.length > 1 && history[history.length - 1].sets.some((s, k) => {
+    const before = history[history.length - 2]
+    return before.sets[k] !== undefined && beatsAcrossDays(s, history[history.length - 1], before.sets[k], before, mode)
+  })
   const span = exposuresInWindow(history, window)
   const recent = history.slice(-span)
   const earlier = history.slice(0, -span)
@@ -569,7 +580,15 @@ export function detectPlateau(exposures: readonly Exposure[], context: PlateauCo
   const bestBefore = earlier.reduce<number | null>((m, e) => maxOf(m, best(e)), null)
   const bestRecent = recent.reduce<number | null>((m, e) => maxOf(m, best(e)), null)
   const estimateRose = bestBefore !== null && bestRecent !== null && bestRecent > bestBefore * (1 + PLATEAU_E1RM_TOLERANCE_PCT / 100)
-  const plateau = history.length > span && streak >= 1 && !estimateRose && triedRepStep && triedLoadStep && !context.recordToday
+  // Sessions in a row, latest last, without a best estimate above every earlier one.
+  let streak = 0
+  let bestSoFar = -Infinity
+  history.forEach((e, i) => {
+    const b = best(e) ?? -Infinity
+    streak = i > 0 && b <= bestSoFar * (1 + PLATEAU_E1RM_TOLERANCE_PCT / 100) ? streak + 1 : 0
+    bestSoFar = Math.max(bestSoFar, b)
+  })
+  const plateau = history.length > span && !latestBeat && !estimateRose && triedRepStep && triedLoadStep && !context.recordToday
   const report: PlateauReport = {
     plateau,
     exposuresWithoutProgress: streak,

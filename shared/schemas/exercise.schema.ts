@@ -47,7 +47,8 @@ export const createExerciseSchema = z.extend(z.omit(exerciseSchema, { id: true, 
   name: z.string().check(z.trim(), z.minLength(2), z.maxLength(80)),
   primaryMuscles: z.array(muscleSchema).check(z.minLength(1, 'Pick at least one primary muscle')),
   loadStepKg: z._default(z.number().check(z.gte(0), z.lte(50)), 0),
-  loadMode: z._default(loadModeSchema, 'external'),
+  /** When absent: body weight plus added load for bodyweight equipment, else the weight lifted. */
+  loadMode: z.optional(loadModeSchema),
   defaultRestSec: z.int().check(z.gte(15), z.lte(600)),
 })
 export type CreateExerciseInput = z.infer<typeof createExerciseSchema>

@@ -1,5 +1,6 @@
 import { z } from './zod'
 import { equipmentSchema } from '../domain/equipment'
+import { exerciseEquipmentSchema } from './exercise.schema'
 import { slotRoleSchema } from './train.schema'
 import { sessionSummarySchema, setKindSchema, versionLabelSchema } from './session.schema'
 
@@ -67,6 +68,11 @@ export const runExerciseSchema = z.object({
   restSec: z.int(),
   /** The equipment that loads this exercise in the lifter's gym. */
   equipment: equipmentSchema,
+  /**
+   * How the exercise is loaded (the library's field): tells a plate-loaded sled from a barbell,
+   * which the engine loads alike. Optional: copies kept on a phone before it was sent lack it.
+   */
+  equipmentKind: z.optional(exerciseEquipmentSchema),
   /** How the logged load reads: as is, added to body mass (bodyweight lifts), or help taken from it. */
   loadMode: z.enum(['external', 'bodyweight', 'assisted']),
   /** The lifter's latest body mass (kg) for a bodyweight or assisted lift, or null. */
@@ -236,11 +242,11 @@ export const takeNextStepSchema = z.object({
   exerciseId: z.int().check(z.positive()),
   slotId: z.nullable(z.int().check(z.positive())),
   option: z._default(takenOptionSchema, 'next_step'),
-  /** The target for next time: required for a next step, its alternative, an edit and the smaller step. */
+  /** The target for next time: required for a next step, its alternative and an edit (a plateau option's target is the server's). */
   targetLoadKg: z.optional(load),
   targetReps: z.optional(reps.check(z.gte(1))),
 }).check(
-  z.refine((s) => !['next_step', 'alternative', 'edited', 'microload'].includes(s.option) || (s.targetLoadKg !== undefined && s.targetReps !== undefined), {
+  z.refine((s) => !['next_step', 'alternative', 'edited'].includes(s.option) || (s.targetLoadKg !== undefined && s.targetReps !== undefined), {
     message: 'Give the load and reps to take',
     path: ['targetLoadKg'],
   }),

@@ -29,6 +29,7 @@ export type RouteName =
   | 'athletes'
   | 'athlete-detail'
   | 'athlete-gym'
+  | 'athlete-start-loads'
   | 'review-desk'
   | 'session-review'
   | 'plans'
@@ -148,6 +149,13 @@ export const routes: NamedRoute[] = [
     component: () => import('@/views/AthleteGymView.vue'),
     props: (route) => ({ id: Number(route.params.id) }),
     meta: { title: "Athlete's gym", requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/athletes/:id(\\d+)/start-loads',
+    name: 'athlete-start-loads',
+    component: () => import('@/views/AthleteStartLoadsView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Starting loads', requiresAuth: true, roles: ['coach'] },
   },
   {
     path: '/review',
