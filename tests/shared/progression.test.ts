@@ -262,6 +262,17 @@ describe('plateau (common practice, no published source)', () => {
     expect(detectPlateau(repsOnly, { ...kg, role: 'compound_primary' }).plateau).toBe(false)
   })
 
+  it('never flags chin-ups whose reps rise at no added load (8, 9, 10, 11 reps), body mass counted', () => {
+    const ctx = { equipment: KG_GYM.bodyweight, mode: 'bodyweight' as const, role: 'accessory' as const }
+    const chins = [8, 9, 10, 11].map((reps, i): Exposure => ({
+      at: day(7 * i), bodyMassKg: 80, sets: [{ kind: 'straight', loadKg: 0, reps, repsMin: 8, repsMax: 12 }],
+    }))
+    const r = detectPlateau(chins, ctx)
+    expect(r.plateau).toBe(false)
+    // Epley with body mass: 80 x 8 = 101.3 kg, 80 x 11 = 109.3 kg; the added load alone would read 0.
+    expect(r.bestE1rmKg).toBeCloseTo(epley(80, 11), 9)
+  })
+
   it('widens the window to four weeks for a lift trained more than once a week', () => {
     // Twice a week: four exposures are only 10 days, so the window takes every exposure of the last 28 days.
     const history = [[100, 8], [100, 8], [100, 8], [100, 8], [100, 8], [102.5, 7], [102.5, 7], [102.5, 7], [100, 8], [100, 8]]
