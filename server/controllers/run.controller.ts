@@ -33,6 +33,10 @@ export async function addExercise(_req: Request, res: Response) {
   res.json({ session: await run.addExercise(currentUser(res.locals), res.locals.params.id, res.locals.body) })
 }
 
+export async function startFromRecentSet(_req: Request, res: Response) {
+  res.json({ session: await run.startFromRecentSet(currentUser(res.locals), res.locals.params.id, res.locals.body) })
+}
+
 export async function complete(req: Request, res: Response) {
   const lifter = currentUser(res.locals)
   const { justCompleted, session, report } = await run.completeSession(lifter, res.locals.params.id, res.locals.body)

@@ -10,11 +10,15 @@ import { AssignmentModel, DayVersionModel, PlanDayModel, PlanModel, SlotModel } 
 import {
   CommentModel, NextStepModel, ReviewModel, SessionModel, SetLogModel, UploadModel,
 } from './models/session.model'
+import { SlotAdjustmentModel } from './models/slot-adjustment.model'
+import { StartEstimateModel } from './models/start-estimate.model'
 
 export * from './models/user.model'
 export * from './models/exercise.model'
 export * from './models/plan.model'
 export * from './models/session.model'
+export * from './models/slot-adjustment.model'
+export * from './models/start-estimate.model'
 
 /** Every association, in one place. */
 function associate() {
@@ -58,12 +62,19 @@ function associate() {
   UploadModel.belongsTo(SetLogModel, { as: 'setLog', foreignKey: 'setLogId' })
   SetLogModel.hasOne(UploadModel, { as: 'video', foreignKey: 'setLogId' })
   UploadModel.belongsTo(UserModel, { as: 'owner', foreignKey: 'ownerId' })
+  SlotAdjustmentModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
+  SlotAdjustmentModel.belongsTo(SlotModel, { as: 'slot', foreignKey: 'slotId' })
+  SlotAdjustmentModel.belongsTo(ExerciseModel, { as: 'exercise', foreignKey: 'exerciseId' })
+  SlotAdjustmentModel.belongsTo(UserModel, { as: 'changer', foreignKey: 'changedBy' })
+  StartEstimateModel.belongsTo(UserModel, { as: 'athlete', foreignKey: 'athleteId' })
+  StartEstimateModel.belongsTo(ExerciseModel, { as: 'exercise', foreignKey: 'exerciseId' })
+  StartEstimateModel.belongsTo(UserModel, { as: 'setter', foreignKey: 'setBy' })
 }
 
 const models = [
   ClubModel, UserModel, CoachAthleteModel, InviteModel, BodyWeightModel, PasswordResetModel, ExerciseModel,
   EquipmentProfileModel, PlanModel, PlanDayModel, DayVersionModel, SlotModel, AssignmentModel,
-  SessionModel, SetLogModel, NextStepModel, ReviewModel, CommentModel, UploadModel,
+  SessionModel, SetLogModel, NextStepModel, ReviewModel, CommentModel, UploadModel, SlotAdjustmentModel, StartEstimateModel,
 ]
 
 /**

@@ -6,6 +6,8 @@ import * as sessionRunner from './migrations/0002-session-runner'
 import * as passwordResets from './migrations/0003-password-resets'
 import * as coachReview from './migrations/0004-coach-review'
 import * as queryIndexes from './migrations/0005-query-indexes'
+import * as sledExercises from './migrations/0006-sled-exercises'
+import * as progressEngine from './migrations/0007-progress-engine'
 
 type Migration = {
   name: string
@@ -20,6 +22,8 @@ const migrations: Migration[] = [
   { name: '0003-password-resets', ...passwordResets },
   { name: '0004-coach-review', ...coachReview },
   { name: '0005-query-indexes', ...queryIndexes },
+  { name: '0006-sled-exercises', ...sledExercises },
+  { name: '0007-progress-engine', ...progressEngine },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

@@ -5,6 +5,7 @@ import { adminRoutes } from './admin.routes'
 import { athleteRoutes } from './athletes.routes'
 import { authRoutes, meRoutes } from './auth.routes'
 import { exerciseRoutes } from './exercises.routes'
+import { gymRoutes } from './gym.routes'
 import { inviteRoutes } from './invites.routes'
 import { logbookRoutes } from './logbook.routes'
 import { planRoutes } from './plans.routes'
@@ -12,6 +13,7 @@ import { progressRoutes } from './progress.routes'
 import { uploadRoutes } from './uploads.routes'
 import { reviewRoutes } from './review.routes'
 import { sessionRoutes } from './sessions.routes'
+import { startEstimateRoutes } from './start-estimates.routes'
 import { trainRoutes } from './train.routes'
 
 /** Everything under /api. */
@@ -23,6 +25,6 @@ export function apiRouter(config: AppConfig) {
   api.get('/health', (_req, res) => {
     res.json({ ok: true })
   })
-  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, uploadRoutes, logbookRoutes, athleteRoutes, adminRoutes)
+  api.use(inviteRoutes, authRoutes, meRoutes, trainRoutes, sessionRoutes, reviewRoutes, exerciseRoutes, planRoutes, progressRoutes, uploadRoutes, logbookRoutes, gymRoutes, startEstimateRoutes, athleteRoutes, adminRoutes)
   return api
 }

@@ -1,8 +1,8 @@
 import { Router } from 'express'
 import { idParamsSchema } from '@shared/schemas/common.schema'
 import {
-  addExerciseSchema, completeSessionSchema, logSetSchema, setParamsSchema, startSessionSchema, swapExerciseSchema,
-  takeNextStepsSchema,
+  addExerciseSchema, completeSessionSchema, logSetSchema, setParamsSchema, startFromRecentSetSchema, startSessionSchema,
+  swapExerciseSchema, takeNextStepsSchema,
 } from '@shared/schemas/run.schema'
 import { listSessionsQuerySchema } from '@shared/schemas/session.schema'
 import { todayQuerySchema } from '@shared/schemas/train.schema'
@@ -26,6 +26,7 @@ sessionRoutes.get('/sessions/:id/report', authenticate, byId, run.report)
 sessionRoutes.put('/sessions/:id/sets/:setId', ...lifter, validate({ params: setParamsSchema, body: logSetSchema }), run.logSet)
 sessionRoutes.post('/sessions/:id/swap', ...lifter, validate({ params: idParamsSchema, body: swapExerciseSchema }), run.swap)
 sessionRoutes.post('/sessions/:id/exercises', ...lifter, validate({ params: idParamsSchema, body: addExerciseSchema }), run.addExercise)
+sessionRoutes.post('/sessions/:id/start-estimate', ...lifter, validate({ params: idParamsSchema, body: startFromRecentSetSchema }), run.startFromRecentSet)
 sessionRoutes.post('/sessions/:id/complete', ...lifter, validate({ params: idParamsSchema, body: completeSessionSchema }), run.complete)
 // The lifter takes next steps; their coach may edit them.
 sessionRoutes.post('/sessions/:id/next-steps', authenticate, requireRole('lifter', 'coach'), validate({ params: idParamsSchema, body: takeNextStepsSchema }), run.takeNextSteps)

@@ -16,6 +16,15 @@ export async function assertCanSeeAthlete(viewer: UserModel, athleteId: number, 
 }
 
 /**
+ * Stricter rule for what a coach changes for an athlete (their gym): only a coach linked to them.
+ * Answers 404 like assertCanSeeAthlete, so nobody learns which ids exist.
+ */
+export async function assertCoachOf(viewer: UserModel, athleteId: number, what = 'Athlete') {
+  if (viewer.role === 'coach' && (await isCoachOf(viewer.id, athleteId))) return
+  throw AppError.notFound(what)
+}
+
+/**
  * May this user train with this exercise? The shared library, their own, or (a lifter) one of
  * their coaches'. Another coach's own exercises stay that coach's.
  */

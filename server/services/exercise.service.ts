@@ -14,18 +14,31 @@ export function toExercise(e: ExerciseModel): Exercise {
     primaryMuscles: e.primaryMuscles as Exercise['primaryMuscles'],
     secondaryMuscles: e.secondaryMuscles as Exercise['secondaryMuscles'],
     equipmentKind: e.equipmentKind as Exercise['equipmentKind'],
+    loadMode: (e.loadMode ?? 'external') as Exercise['loadMode'],
     loadStepKg: e.loadStepKg,
     defaultRestSec: e.defaultRestSec,
     custom: e.ownerId !== null,
   }
 }
 
-/** The shared library plus the viewer's own exercises (a coach's) or their coaches' (a lifter's). */
-export async function listExercises(viewer: UserModel, query: ListExercisesQuery): Promise<Exercise[]> {
+/** Whose own exercises a user may use besides the shared library: their own, and a lifter's coaches'. */
+async function ownersFor(viewer: UserModel, transaction?: Transaction): Promise<number[]> {
   const owners = [viewer.id]
   if (viewer.role === 'lifter') {
-    owners.push(...(await CoachAthleteModel.findAll({ where: { athleteId: viewer.id } })).map((l) => l.coachId))
+    owners.push(...(await CoachAthleteModel.findAll({ where: { athleteId: viewer.id }, transaction })).map((l) => l.coachId))
   }
+  return owners
+}
+
+/** Every exercise a user may use, in library order (by name). */
+export async function usableExercises(viewer: UserModel, transaction?: Transaction): Promise<ExerciseModel[]> {
+  const owners = await ownersFor(viewer, transaction)
+  return ExerciseModel.findAll({ where: { [Op.or]: [{ ownerId: null }, { ownerId: owners }] }, order: [['name', 'ASC']], transaction })
+}
+
+/** The shared library plus the viewer's own exercises (a coach's) or their coaches' (a lifter's). */
+export async function listExercises(viewer: UserModel, query: ListExercisesQuery): Promise<Exercise[]> {
+  const owners = await ownersFor(viewer)
   const rows = await ExerciseModel.findAll({
     where: {
       [Op.or]: [{ ownerId: null }, { ownerId: owners }],
@@ -45,7 +58,8 @@ export async function listExercises(viewer: UserModel, query: ListExercisesQuery
 export async function createExercise(owner: UserModel, input: CreateExerciseInput): Promise<Exercise> {
   const clash = await ExerciseModel.findOne({ where: { name: input.name, [Op.or]: [{ ownerId: null }, { ownerId: owner.id }] } })
   if (clash) throw AppError.conflict('exercise_exists', 'An exercise with this name is already in your library')
-  return toExercise(await ExerciseModel.create({ ...input, ownerId: owner.id }))
+  const loadMode = input.loadMode ?? (input.equipmentKind === 'bodyweight' ? 'bodyweight' : 'external')
+  return toExercise(await ExerciseModel.create({ ...input, loadMode, ownerId: owner.id }))
 }
 
 /**

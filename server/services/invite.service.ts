@@ -69,9 +69,9 @@ export async function previewInvite(token: string, now = new Date()): Promise<In
 }
 
 /**
- * Accepts an invitation: a new lifter sets a password (and is signed in); an existing lifter
- * must be signed in as the invited e-mail. Either way the lifter is linked to the coach and
- * the link stops working.
+ * Accepts an invitation: a new lifter sets a password and their unit (and is signed in); an
+ * existing lifter must be signed in as the invited e-mail and keeps their unit. Either way the
+ * lifter is linked to the coach and the link stops working.
  */
 export async function acceptInvite(config: AppConfig, token: string, input: AcceptInviteInput, signedIn: UserModel | null, now = new Date()) {
   const sequelize = InviteModel.sequelize!
@@ -88,7 +88,7 @@ export async function acceptInvite(config: AppConfig, token: string, input: Acce
       assertNotCommonPassword(input.password)
       lifter = await UserModel.create(
         {
-          name: input.name ?? invite.name, email: invite.email, role: 'lifter', unit: 'kg', clubId: null,
+          name: input.name ?? invite.name, email: invite.email, role: 'lifter', unit: input.unit ?? 'kg', clubId: null,
           passwordHash: await bcrypt.hash(input.password, config.bcryptCost), cautionsAcknowledgedAt: null,
         },
         { transaction },

@@ -153,7 +153,7 @@ export async function commitImport(lifter: UserModel, input: ImportRequest): Pro
       const target = input.exerciseMap[name]
       if (target === 'new') {
         const created = await ExerciseModel.create(
-          { ownerId: lifter.id, name, pattern: 'core', primaryMuscles: [], secondaryMuscles: [], equipmentKind: 'barbell', loadStepKg: 2.5, defaultRestSec: 120 },
+          { ownerId: lifter.id, name, pattern: 'core', primaryMuscles: [], secondaryMuscles: [], equipmentKind: 'barbell', loadMode: 'external', loadStepKg: 0, defaultRestSec: 120 },
           { transaction },
         )
         byName.set(name.toLowerCase(), created.id)

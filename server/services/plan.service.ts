@@ -1,5 +1,6 @@
 import { Op, fn, col, type Transaction } from 'sequelize'
 import { PLAN_TEMPLATES } from '@shared/domain/plan-templates'
+import { freshExercisesFor, type RotationSlot } from '@shared/domain/rotation'
 import { DEFAULT_REST_SECONDS, DEFAULT_SCHEMES, setSchemeSchema, type SetScheme } from '@shared/domain/schemes'
 import type {
   ApplyRotationInput, AssignPlanInput, DayInput, Plan, PlanFromTemplateInput, PlanInput, PlanSummary,
@@ -225,8 +226,8 @@ export async function createFromTemplate(owner: UserModel, input: PlanFromTempla
       name: day.name,
       isRest: day.isRest,
       versions: {
-        I: day.slots.map((s) => ({ exerciseId: pick(s.I, s.pattern), role: s.role, scheme: DEFAULT_SCHEMES[s.role] as SetScheme, restSec: DEFAULT_REST_SECONDS[s.role] })),
-        II: day.slots.map((s) => ({ exerciseId: pick(s.II, s.pattern), role: s.role, scheme: DEFAULT_SCHEMES[s.role] as SetScheme, restSec: DEFAULT_REST_SECONDS[s.role] })),
+        I: day.slots.map((s) => ({ exerciseId: pick(s.I, s.pattern), role: s.role, scheme: s.scheme, restSec: DEFAULT_REST_SECONDS[s.role] })),
+        II: day.slots.map((s) => ({ exerciseId: pick(s.II, s.pattern), role: s.role, scheme: s.scheme, restSec: DEFAULT_REST_SECONDS[s.role] })),
       },
     })),
   })
@@ -265,15 +266,16 @@ export async function proposeRotation(viewer: UserModel, id: number, input: Rota
   const usedInPlan = new Set(plan.days.flatMap((d) => [...d.versions.I, ...d.versions.II].map((s) => s.exerciseId)))
   const library = await ExerciseModel.findAll({ where: { [Op.or]: [{ ownerId: null }, { ownerId: viewer.id }] }, order: [['name', 'ASC']] })
   const other = input.version === 'I' ? 'II' : 'I'
-  const takenHere = new Set<number>()
-  const swaps = day.versions[input.version].flatMap((slot, i) => {
-    const avoid = new Set([slot.exerciseId, day.versions[other][i]?.exerciseId, ...takenHere])
-    const candidates = library.filter((e) => e.pattern === slot.pattern && !avoid.has(e.id))
-    const fresh = candidates.find((e) => !usedInPlan.has(e.id)) ?? candidates[0]
-    if (!fresh) return []
-    takenHere.add(fresh.id)
-    return [{ slotId: slot.id, fromExerciseId: slot.exerciseId, fromName: slot.exerciseName, toExerciseId: fresh.id, toName: fresh.name }]
-  })
+  const asRotation = (s: Slot): RotationSlot => ({ slotId: s.id, pattern: s.pattern, exerciseId: s.exerciseId })
+  const chosen = freshExercisesFor(day.versions[input.version].map(asRotation), day.versions[other].map(asRotation), usedInPlan, library)
+  const names = new Map(library.map((e) => [e.id, e.name]))
+  const swaps = chosen.map((c) => ({
+    slotId: c.slotId,
+    fromExerciseId: c.fromExerciseId,
+    fromName: day.versions[input.version].find((s) => s.id === c.slotId)!.exerciseName,
+    toExerciseId: c.toExerciseId,
+    toName: names.get(c.toExerciseId) ?? '',
+  }))
   return { dayId: day.id, version: input.version, swaps }
 }
 

@@ -1,9 +1,8 @@
 import { Op } from 'sequelize'
-import type { PerformedSet } from '@shared/domain/progression'
 import { reviewFlags, type ReviewBlock, type ReviewFlag } from '@shared/domain/review-flags'
 import { rotationEntry } from '@shared/domain/rotation'
 import { AssignmentModel, PlanDayModel, SessionModel, type SetLogModel, type UserModel } from '../db'
-import { blockKey, equipmentOf, gymOf, historyFor, sessionBlocks } from './session-planning.service'
+import { sessionLifts, type SessionLift } from './session-report.service'
 import { slotsOf } from './train.service'
 
 const DAY_MS = 86_400_000
@@ -27,42 +26,27 @@ async function restDaysBetween(previous: SessionModel, session: SessionModel): P
  * The review desk's flags for a completed session, as it looked when it was done: its sets
  * against the lifter's earlier sessions. Computed once when the session is finished.
  */
-export async function computeSessionFlags(session: SessionModel, athlete: UserModel): Promise<ReviewFlag[]> {
+export async function computeSessionFlags(session: SessionModel, athlete: UserModel, lifts?: SessionLift[]): Promise<ReviewFlag[]> {
   const completedAt = session.completedAt ?? new Date()
-  const groups = await sessionBlocks(session.id)
-  const [gym, history, previous] = await Promise.all([
-    gymOf(athlete),
-    historyFor(athlete.id, groups.map((g) => ({ exerciseId: g.exercise.id, slotId: g.slotId })), session.id, completedAt),
+  const [all, previous] = await Promise.all([
+    lifts ? Promise.resolve(lifts) : sessionLifts(session, athlete),
     SessionModel.findOne({
       where: { athleteId: athlete.id, status: 'completed', id: { [Op.ne]: session.id }, completedAt: { [Op.lt]: completedAt } },
       order: [['completedAt', 'DESC']],
     }),
   ])
-  const blocks: ReviewBlock[] = groups.map((g) => {
-    const working = g.sets.filter((s) => s.kind !== 'warmup')
-    const isDone = (s: SetLogModel) => !s.skipped && s.loggedAt !== null && s.loadKg !== null && (s.reps ?? 0) > 0
-    const exposureSets: PerformedSet[] = working.filter(isDone).map((s) => ({
-      kind: s.kind === 'warmup' ? 'straight' : s.kind,
-      loadKg: s.loadKg!,
-      reps: s.reps!,
-      repsMin: s.targetRepsMin ?? s.reps!,
-      repsMax: s.targetRepsMax ?? s.reps!,
-      rir: s.failure ? 0 : s.rir,
-    }))
-    return {
-      exercise: g.exercise.name,
-      role: g.role,
-      equipment: equipmentOf(gym, g.exercise),
-      planned: working.map((s) => ({
-        kind: s.kind as 'top' | 'backoff' | 'straight',
-        repsMin: s.targetRepsMin,
-        repsMax: s.targetRepsMax,
-        done: isDone(s) ? { loadKg: s.loadKg!, reps: s.reps! } : null,
-      })),
-      history: history.get(blockKey(g.exercise.id, g.slotId))?.exposures ?? [],
-      exposure: { sets: exposureSets },
-    }
-  })
+  const isDone = (s: SetLogModel) => !s.skipped && s.loggedAt !== null && s.loadKg !== null && (s.reps ?? 0) > 0
+  const blocks: ReviewBlock[] = all.map(({ block, report }) => ({
+    exercise: block.exercise.name,
+    planned: block.sets.filter((s) => s.kind !== 'warmup').map((s) => ({
+      kind: s.kind as 'top' | 'backoff' | 'straight',
+      repsMin: s.targetRepsMin,
+      repsMax: s.targetRepsMax,
+      done: isDone(s) ? { loadKg: s.loadKg!, reps: s.reps! } : null,
+    })),
+    lift: report,
+  }))
+  const groups = all.map((l) => l.block)
   // Time between consecutive working sets of an exercise against its planned rest: the log
   // times tell whether the lifter waited for the rest clock.
   const slotRests = session.planDayId && session.versionLabel

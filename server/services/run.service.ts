@@ -1,15 +1,21 @@
 import { randomUUID } from 'node:crypto'
 import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize'
+import { estimateOneRepMax } from '@shared/domain/e1rm'
 import { isLoadable, roundDownToLoadable } from '@shared/domain/equipment'
+import { movedLoadKg } from '@shared/domain/lift-progress'
+import type { PlannedSet } from '@shared/domain/planned-sets'
+import { freshExercisesFor } from '@shared/domain/rotation'
 import { backoffTarget, DEFAULT_REST_SECONDS, type SlotRole } from '@shared/domain/schemes'
 import { sessionTotals } from '@shared/domain/summary'
 import type {
-  AddExerciseInput, CompleteSessionInput, LogSetInput, RunSession, RunSet, StartSessionInput, SwapExerciseInput,
-  TakeNextStepsInput,
+  AddExerciseInput, CompleteSessionInput, LogSetInput, RunSession, RunSet, StartFromRecentSetInput, StartSessionInput,
+  SwapExerciseInput, TakeNextStepsInput,
 } from '@shared/schemas/run.schema'
+import type { ExerciseEquipment } from '@shared/schemas/exercise.schema'
 import type { TodayQuery } from '@shared/schemas/train.schema'
 import {
-  AssignmentModel, CommentModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel, SlotModel, UserModel,
+  AssignmentModel, CommentModel, DayVersionModel, ExerciseModel, NextStepModel, PlanDayModel, SessionModel, SetLogModel,
+  SlotAdjustmentModel, SlotModel, StartEstimateModel, UserModel,
 } from '../db'
 import { upsertOwnSetLog } from '../db/set-log-upsert'
 import { AppError } from '../errors'
@@ -17,10 +23,12 @@ import { canUseExercise } from './access.service'
 import { toSessionSummary } from './presenters'
 import { computeSessionFlags } from './review-flags.service'
 import { sessionForViewer } from './session.service'
-import { buildReport } from './session-report.service'
+import { buildReport, sessionLifts } from './session-report.service'
 import {
-  blockKey, equipmentOf, gymOf, historyFor, parseScheme, planBlock,
+  blockKey, bodyMassAt, bodyMassEntries, gymOf, historyFor, liftOf, loadModeOf, parseScheme, planBlocks, planningContext,
+  planDay, type BlockToPlan, type PlanningContext,
 } from './session-planning.service'
+import { usableExercises } from './exercise.service'
 import { resolveToday, slotsOf } from './train.service'
 
 /** Sets of block i sit at positions i*100 .. i*100+99, so adding or swapping never renumbers others. */
@@ -47,6 +55,7 @@ export function toRunSet(set: SetLogModel): RunSet {
     note: set.note,
     loggedAt: set.loggedAt?.toISOString() ?? null,
     editedAt: set.editedAt?.toISOString() ?? null,
+    deload: set.deload ?? false,
   }
 }
 
@@ -59,6 +68,7 @@ function storedSet(id: string, input: LogSetInput): RunSet {
     reps: input.reps, rir: input.rir, failure: input.failure, skipped: input.skipped, note: input.note,
     loggedAt: input.loggedAt ? new Date(input.loggedAt).toISOString() : null,
     editedAt: new Date(input.editedAt).toISOString(),
+    deload: false,
   }
 }
 
@@ -73,32 +83,15 @@ function assertRunning(session: SessionModel) {
   if (session.status === 'completed') throw AppError.conflict('session_completed', 'This session is already finished')
 }
 
-/** Planned sets for one block, as rows to insert. */
-function plannedRows(input: {
-  sessionId: number
-  exercise: ExerciseModel
-  slotId: number | null
-  role: SlotRole
-  scheme: unknown
-  restSec: number
-  blockIndex: number
-  gym: Awaited<ReturnType<typeof gymOf>>
-  history: Awaited<ReturnType<typeof historyFor>>
-}) {
-  const planned = planBlock({
-    role: input.role,
-    scheme: parseScheme(input.scheme),
-    equipment: equipmentOf(input.gym, input.exercise),
-    history: input.history.get(blockKey(input.exercise.id, input.slotId)),
-    restSec: input.restSec,
-  })
+/** One block's planned sets as rows to insert, block i at positions i*100.. */
+function rowsOf(sessionId: number, block: BlockToPlan & { slotId: number | null }, planned: PlannedSet[], blockIndex: number) {
   return planned.map((p) => ({
     id: randomUUID(),
-    sessionId: input.sessionId,
-    exerciseId: input.exercise.id,
-    slotId: input.slotId,
-    role: input.role,
-    position: input.blockIndex * BLOCK_STRIDE + p.position,
+    sessionId,
+    exerciseId: block.exercise.id,
+    slotId: block.slotId,
+    role: block.role,
+    position: blockIndex * BLOCK_STRIDE + p.position,
     kind: p.kind,
     targetLoadKg: p.targetLoadKg,
     targetRepsMin: p.targetRepsMin,
@@ -106,12 +99,34 @@ function plannedRows(input: {
     targetReps: p.targetReps,
     toFailure: p.toFailure,
     targetRir: p.targetRir,
+    deload: p.source === 'deload',
     loadKg: null,
     reps: null,
     rir: null,
     note: null,
     loggedAt: null,
   }))
+}
+
+/** Planned rows for these blocks in session order (block i at positions i*100..). */
+function plannedRows(
+  sessionId: number,
+  blocks: Array<BlockToPlan & { slotId: number | null }>,
+  context: PlanningContext,
+  firstBlockIndex: number,
+  patternsBefore: Iterable<string>,
+) {
+  return planBlocks(blocks, context, patternsBefore).flatMap((planned, i) => rowsOf(sessionId, blocks[i], planned, firstBlockIndex + i))
+}
+
+/** Movement patterns of the session's blocks before `position` (their lifts are warm). */
+async function patternsBefore(sessionId: number, position: number): Promise<string[]> {
+  const sets = await SetLogModel.findAll({
+    where: { sessionId, position: { [Op.lt]: position } },
+    attributes: ['exerciseId'],
+    include: [{ model: ExerciseModel, as: 'exercise', attributes: ['pattern'] }],
+  })
+  return [...new Set(sets.map((s) => s.exercise!.pattern))]
 }
 
 /** The runner's whole view of a session: sets, and per exercise its equipment and last time. */
@@ -131,10 +146,12 @@ export async function runSessionView(session: SessionModel, athlete: UserModel):
   if (session.planDayId && session.versionLabel) {
     for (const slot of await slotsOf(session.planDayId, session.versionLabel)) slotRest.set(slot.id, slot.restSec)
   }
+  const masses = await bodyMassEntries(athlete.id)
   const [gym, history] = await Promise.all([
     gymOf(athlete),
-    historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id),
+    historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id, undefined, masses),
   ])
+  const bodyMassKg = bodyMassAt(masses, null)
   // The coach's comments on each exercise's sets last time, shown on the set card.
   const lastSessionIds = [...new Set([...history.values()].map((h) => h.exposures.at(-1)?.sessionId).filter((id): id is number => id !== undefined))]
   const comments = lastSessionIds.length
@@ -159,8 +176,11 @@ export async function runSessionView(session: SessionModel, athlete: UserModel):
         pattern: exercise.pattern,
         role,
         restSec: (slotId !== null ? slotRest.get(slotId) : undefined) ?? DEFAULT_REST_SECONDS[role],
-        equipment: equipmentOf(gym, exercise),
-        lastTime: (last?.sets ?? []).map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps, rir: s.rir ?? null })),
+        equipment: liftOf(gym, exercise).equipment,
+        equipmentKind: exercise.equipmentKind as ExerciseEquipment,
+        loadMode: loadModeOf(exercise),
+        bodyMassKg: loadModeOf(exercise) === 'external' ? null : bodyMassKg,
+        lastTime: (blockHistory?.exposures.filter((e) => !e.deload).at(-1)?.sets ?? last?.sets ?? []).map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps, rir: s.rir ?? null })),
         lastTimeAt: last?.at ?? null,
         coachComments: comments
           .filter((c) => c.sessionId === last?.sessionId && (c as CommentModel & { setLog?: SetLogModel }).setLog?.exerciseId === exercise.id)
@@ -216,11 +236,7 @@ export async function startSession(lifter: UserModel, input: StartSessionInput, 
     }
   }
 
-  const slots = day && version ? await slotsOf(day.id, version) : []
-  const [gym, history] = await Promise.all([
-    gymOf(lifter),
-    historyFor(lifter.id, slots.map((s) => ({ exerciseId: s.exerciseId, slotId: s.id }))),
-  ])
+  const day_ = day && version ? await planDay(lifter, await slotsOf(day.id, version)) : []
   const sequelize = SessionModel.sequelize!
   const session = await sequelize.transaction(async (transaction) => {
     const created = await SessionModel.create(
@@ -230,12 +246,7 @@ export async function startSession(lifter: UserModel, input: StartSessionInput, 
       },
       { transaction },
     )
-    const rows = slots.flatMap((slot, blockIndex) =>
-      plannedRows({
-        sessionId: created.id, exercise: slot.exercise!, slotId: slot.id, role: slot.role as SlotRole,
-        scheme: slot.scheme, restSec: slot.restSec, blockIndex, gym, history,
-      }),
-    )
+    const rows = day_.flatMap(({ block, planned }, blockIndex) => rowsOf(created.id, block, planned, blockIndex))
     await SetLogModel.bulkCreate(rows, { transaction })
     return created
   })
@@ -280,14 +291,15 @@ export async function logSet(lifter: UserModel, sessionId: number, setId: string
     }
 
     if (set.kind === 'top' && set.loadKg !== null && set.reps !== null && set.reps > 0 && !set.skipped) {
-      const gym = await gymOf(lifter)
-      const equipment = equipmentOf(gym, exercise)
+      const [gym, masses] = await Promise.all([gymOf(lifter), bodyMassEntries(lifter.id)])
+      const lift = liftOf(gym, exercise)
+      const reading = { mode: lift.mode ?? 'external' as const, bodyMassKg: bodyMassAt(masses, null) }
       const backoffs = await openBackoffsOf(sequelize, set, transaction)
       for (const backoff of backoffs) {
         if (backoff.targetRepsMin === null || backoff.targetRepsMax === null) continue
         const target = backoffTarget({
           topLoadKg: set.loadKg, topReps: set.reps, topRir: set.failure ? 0 : (set.rir ?? 0),
-          repsMin: backoff.targetRepsMin, repsMax: backoff.targetRepsMax, equipment,
+          repsMin: backoff.targetRepsMin, repsMax: backoff.targetRepsMax, equipment: lift.equipment, reading,
         })
         await backoff.update({ targetLoadKg: target.target.loadKg }, { transaction })
         updated.push(backoff)
@@ -345,11 +357,9 @@ export async function swapExercise(lifter: UserModel, sessionId: number, input: 
   const workingDone = finished.filter((s) => s.kind !== 'warmup').length
   const role = (blockSets[0].role ?? 'accessory') as SlotRole
   const slot = input.slotId !== null ? await SlotModel.findByPk(input.slotId) : null
-  const [gym, history] = await Promise.all([gymOf(lifter), historyFor(lifter.id, [{ exerciseId: to.id, slotId: input.slotId }], sessionId)])
-  let rows = plannedRows({
-    sessionId, exercise: to, slotId: input.slotId, role, scheme: slot?.scheme,
-    restSec: slot?.restSec ?? to.defaultRestSec, blockIndex: 0, gym, history,
-  })
+  const block = { exercise: to, slotId: input.slotId, role, scheme: parseScheme(slot?.scheme), restSec: slot?.restSec ?? to.defaultRestSec }
+  const context = await planningContext(lifter, [{ exerciseId: to.id, slotId: input.slotId }], sessionId)
+  let rows = plannedRows(sessionId, [block], context, 0, await patternsBefore(sessionId, blockSets[0].position))
   // Working sets already done on the old exercise count: plan only the rest, with no warm-up.
   if (workingDone > 0) rows = rows.filter((r) => r.kind !== 'warmup').slice(workingDone)
   const start = finished.length > 0 ? Math.max(...finished.map((s) => s.position)) + 1 : blockSets[0].position
@@ -367,22 +377,24 @@ export async function addExercise(lifter: UserModel, sessionId: number, input: A
   const exercise = await exerciseForSession(lifter, input.exerciseId)
   const last = await SetLogModel.max<number, SetLogModel>('position', { where: { sessionId } })
   const blockIndex = last === null ? 0 : Math.floor(last / BLOCK_STRIDE) + 1
-  const [gym, history] = await Promise.all([gymOf(lifter), historyFor(lifter.id, [{ exerciseId: exercise.id, slotId: null }], sessionId)])
-  await SetLogModel.bulkCreate(
-    plannedRows({
-      sessionId, exercise, slotId: null, role: input.role, scheme: undefined,
-      restSec: exercise.defaultRestSec, blockIndex, gym, history,
-    }),
-  )
+  const block = { exercise, slotId: null, role: input.role, restSec: exercise.defaultRestSec }
+  const context = await planningContext(lifter, [{ exerciseId: exercise.id, slotId: null }], sessionId)
+  await SetLogModel.bulkCreate(plannedRows(sessionId, [block], context, blockIndex, await patternsBefore(sessionId, blockIndex * BLOCK_STRIDE)))
   return runSessionView(session, lifter)
 }
 
-/** Adds the review desk's flags and the number of records to a finished session's stored totals. */
+/**
+ * Stores a finished session's totals, the review desk's flags and its number of records, all from
+ * one set of lift reports (the summary reads the same reports, so the figures agree).
+ */
 export async function storeReviewSummary(session: SessionModel, athlete: UserModel) {
-  const flags = await computeSessionFlags(session, athlete)
-  const report = await buildReport(session, athlete)
-  const records = report.exercises.reduce((n, e) => n + e.records.length, 0)
-  await session.update({ summary: { ...(session.summary as object), flags, records } })
+  const lifts = await sessionLifts(session, athlete)
+  const flags = await computeSessionFlags(session, athlete, lifts)
+  const doneSets = await SetLogModel.findAll({ where: { sessionId: session.id, skipped: false, loggedAt: { [Op.ne]: null } }, attributes: ['kind', 'loadKg', 'reps'] })
+  const { workingSets } = sessionTotals(doneSets.map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps })))
+  const volumeKg = lifts.reduce((sum, l) => sum + l.report.volumeKg, 0)
+  const records = lifts.reduce((n, l) => n + l.report.records.length, 0)
+  await session.update({ summary: { workingSets, volumeKg, flags, records } })
 }
 
 /**
@@ -393,11 +405,9 @@ export async function completeSession(lifter: UserModel, sessionId: number, inpu
   const session = await ownSession(lifter, sessionId)
   const justCompleted = session.status !== 'completed'
   if (justCompleted) {
-    const sets = await SetLogModel.findAll({ where: { sessionId, skipped: false, loggedAt: { [Op.ne]: null } } })
-    const totals = sessionTotals(sets.map((s) => ({ kind: s.kind, loadKg: s.loadKg, reps: s.reps })))
     const completedAt = new Date(Math.max(new Date(input.completedAt).getTime(), session.startedAt?.getTime() ?? 0))
     await SessionModel.sequelize!.transaction(async (transaction) => {
-      await session.update({ status: 'completed', completedAt, summary: totals, note: input.note }, { transaction })
+      await session.update({ status: 'completed', completedAt, note: input.note }, { transaction })
       if (session.assignmentId !== null && session.rotationIndex !== null) {
         const assignment = await AssignmentModel.findByPk(session.assignmentId, { transaction })
         if (assignment && assignment.rotationIndex <= session.rotationIndex) {
@@ -410,35 +420,169 @@ export async function completeSession(lifter: UserModel, sessionId: number, inpu
   return { justCompleted, session, report: await buildReport(session, lifter) }
 }
 
+/** Options whose target (load and reps) goes into the next session's first working set. */
+const TARGET_OPTIONS = new Set(['next_step', 'alternative', 'edited', 'microload', 'add_set'])
+
 /**
- * Takes (or edits) next steps: they become the next session's targets for those exercises.
- * The lifter takes them; their coach may edit them (always recorded as edited).
+ * Takes (or edits) next steps, or a plateau option: each changes what the next session plans for
+ * that exercise. The lifter takes them; their coach may too (always recorded as edited by the
+ * coach). A plateau option is taken only when the engine offers it for this session, so the
+ * caps and the "strictly smaller step" rule hold whoever asks:
+ * - microload: the smaller load step becomes the target;
+ * - add_set: one more working set in that slot from now on (the lifter's own slot adjustment),
+ *   with the next step as the target;
+ * - deload: the next session of that slot is a deload (lighter, half the sets), then progress
+ *   continues from before it;
+ * - rotate_version: every slot of that day's version gets a fresh exercise of the same movement
+ *   pattern for this lifter (the coach's plan is left as written).
  */
 export async function takeNextSteps(viewer: UserModel, sessionId: number, input: TakeNextStepsInput) {
   const { session, athlete } = await sessionForViewer(viewer, sessionId)
   if (viewer.role === 'lifter' && session.athleteId !== viewer.id) throw AppError.notFound('Session')
   if (session.status !== 'completed') throw AppError.conflict('session_running', 'Finish the session first')
   const byCoach = viewer.role === 'coach'
-  const gym = await gymOf(athlete)
+  const [gym, lifts] = await Promise.all([gymOf(athlete), sessionLifts(session, athlete)])
+  const refuse = (message: string) => AppError.badRequest(message, [{ path: 'steps', message }])
   await SessionModel.sequelize!.transaction(async (transaction) => {
     for (const step of input.steps) {
-      const exercise = await ExerciseModel.findByPk(step.exerciseId, { transaction })
-      const inSession = await SetLogModel.findOne({ where: { sessionId, exerciseId: step.exerciseId, slotId: step.slotId }, transaction })
-      if (!exercise || !inSession) throw AppError.badRequest('That exercise is not in this session', [{ path: 'steps', message: 'Unknown exercise' }])
-      const equipment = equipmentOf(gym, exercise)
-      const loadKg = isLoadable(step.targetLoadKg, equipment)
-        ? step.targetLoadKg
-        : roundDownToLoadable(step.targetLoadKg, equipment).loadKg
+      const lift = lifts.find((l) => l.block.exercise.id === step.exerciseId && l.block.slotId === step.slotId)
+      if (!lift) throw refuse('That exercise is not in this session')
+      const { exercise } = lift.block
+      const plateauOption = (kind: string) => lift.report.plateau?.options.find((o) => o.kind === kind)
+      let target: { loadKg: number; reps: number } | null = null
+      switch (step.option) {
+        case 'microload': {
+          const offered = plateauOption('microload')
+          if (!offered?.target || offered.targetReps === undefined) throw refuse('A smaller load step is not offered for this exercise')
+          target = { loadKg: offered.target.loadKg, reps: offered.targetReps }
+          break
+        }
+        case 'add_set':
+        case 'deload':
+        case 'rotate_version':
+          if (!plateauOption(step.option)) throw refuse(`That option is not offered for ${exercise.name}`)
+          if (step.option !== 'deload' && step.slotId === null) throw refuse('Only an exercise of the plan can be changed this way')
+          break
+        default:
+          break
+      }
+      if (step.option === 'add_set' && lift.report.nextStep) {
+        target = { loadKg: lift.report.nextStep.target.loadKg, reps: lift.report.nextStep.targetReps }
+      }
+      if (target === null && TARGET_OPTIONS.has(step.option) && step.targetLoadKg !== undefined && step.targetReps !== undefined) {
+        const equipment = liftOf(gym, exercise).equipment
+        const loadKg = isLoadable(step.targetLoadKg, equipment) ? step.targetLoadKg : roundDownToLoadable(step.targetLoadKg, equipment).loadKg
+        target = { loadKg, reps: step.targetReps }
+      }
+      const working = lift.block.sets.find((s) => s.kind !== 'warmup')
       const values = {
-        status: step.edited || byCoach ? ('edited' as const) : ('taken' as const),
-        targetLoadKg: loadKg, targetReps: step.targetReps,
-        targetRepsMin: inSession.targetRepsMin, targetRepsMax: inSession.targetRepsMax,
+        status: step.option === 'edited' || byCoach ? ('edited' as const) : ('taken' as const),
+        option: step.option,
+        targetLoadKg: target?.loadKg ?? null,
+        targetReps: target?.reps ?? null,
+        targetRepsMin: working?.targetRepsMin ?? null,
+        targetRepsMax: working?.targetRepsMax ?? null,
         reason: byCoach ? { by: 'coach' } : null,
       }
       const existing = await NextStepModel.findOne({ where: { sessionId, exerciseId: step.exerciseId, slotId: step.slotId }, transaction })
+      const previousOption = existing?.option ?? null
       if (existing) await existing.update(values, { transaction })
       else await NextStepModel.create({ athleteId: athlete.id, exerciseId: step.exerciseId, slotId: step.slotId, sessionId, ...values }, { transaction })
+      // Lasting changes to the lifter's own slot, made once however often the option is taken.
+      if (step.option === 'add_set' && previousOption !== 'add_set') {
+        const [adjustment] = await SlotAdjustmentModel.findOrCreate({
+          where: { athleteId: athlete.id, slotId: step.slotId! },
+          defaults: { athleteId: athlete.id, slotId: step.slotId!, exerciseId: null, extraSets: 0, changedBy: viewer.id },
+          transaction,
+        })
+        await adjustment.update({ extraSets: adjustment.extraSets + 1, changedBy: viewer.id }, { transaction })
+      }
+      // One rotation per session: taking it on a second lift of the same day's version changes nothing more.
+      if (step.option === 'rotate_version' && previousOption !== 'rotate_version') {
+        const rotatedAlready = await NextStepModel.count({
+          where: { sessionId, option: 'rotate_version', exerciseId: { [Op.ne]: step.exerciseId } },
+          transaction,
+        })
+        if (rotatedAlready === 0) await rotateVersionFor(athlete, session, viewer, transaction)
+      }
     }
   })
   return buildReport(session, athlete)
+}
+
+/**
+ * Fresh exercises for every slot of the session's day version, for this lifter only: the same
+ * choice the coach's rotation makes (shared/domain/rotation.ts), over the exercises they may use,
+ * avoiding the ones their plan and their earlier swaps already use.
+ */
+async function rotateVersionFor(athlete: UserModel, session: SessionModel, viewer: UserModel, transaction: Transaction) {
+  if (!session.planDayId || !session.versionLabel) throw AppError.badRequest('This session has no plan day to rotate', [])
+  const other = session.versionLabel === 'I' ? 'II' : 'I'
+  const [mine, theirs] = await Promise.all([slotsOf(session.planDayId, session.versionLabel), slotsOf(session.planDayId, other)])
+  const adjustments = await SlotAdjustmentModel.findAll({ where: { athleteId: athlete.id }, transaction })
+  const current = new Map(adjustments.filter((a) => a.exerciseId !== null).map((a) => [a.slotId, a.exerciseId!]))
+  const exerciseIn = (slot: SlotModel) => current.get(slot.id) ?? slot.exerciseId
+  const assignment = session.assignmentId ? await AssignmentModel.findByPk(session.assignmentId, { transaction }) : null
+  const planSlots = assignment
+    ? await SlotModel.findAll({
+        include: [{ model: DayVersionModel, as: 'version', attributes: [], include: [{ model: PlanDayModel, as: 'day', attributes: [], where: { planId: assignment.planId } }] }],
+        attributes: ['id', 'exerciseId'],
+        transaction,
+      })
+    : []
+  const usedInPlan = new Set([...planSlots.map((s) => s.exerciseId), ...current.values()])
+  const library = await usableExercises(athlete, transaction)
+  const patternOf = new Map(library.map((e) => [e.id, e.pattern]))
+  const asRotation = (slot: SlotModel) => ({ slotId: slot.id, pattern: patternOf.get(exerciseIn(slot)) ?? slot.exercise!.pattern, exerciseId: exerciseIn(slot) })
+  const chosen = freshExercisesFor(mine.map(asRotation), theirs.map(asRotation), usedInPlan, library)
+  for (const swap of chosen) {
+    const [adjustment] = await SlotAdjustmentModel.findOrCreate({
+      where: { athleteId: athlete.id, slotId: swap.slotId },
+      defaults: { athleteId: athlete.id, slotId: swap.slotId, exerciseId: swap.toExerciseId, extraSets: 0, changedBy: viewer.id },
+      transaction,
+    })
+    // A fresh exercise starts from its own history: sets added to the old one do not carry over.
+    await adjustment.update({ exerciseId: swap.toExerciseId, extraSets: 0, changedBy: viewer.id }, { transaction })
+  }
+}
+
+/**
+ * A recent set for a lift with no history, entered on the set card (or the last set of a
+ * find-your-load ramp): kept as the lifter's starting estimate for that exercise, and the block's
+ * open sets in this session are planned again from it.
+ */
+export async function startFromRecentSet(lifter: UserModel, sessionId: number, input: StartFromRecentSetInput) {
+  const session = await ownSession(lifter, sessionId)
+  assertRunning(session)
+  const blockSets = await SetLogModel.findAll({ where: { sessionId, exerciseId: input.exerciseId, slotId: input.slotId }, order: [['position', 'ASC']] })
+  if (blockSets.length === 0) throw AppError.notFound('Exercise in this session')
+  const exercise = (await ExerciseModel.findByPk(input.exerciseId))!
+  const masses = await bodyMassEntries(lifter.id)
+  const moved = movedLoadKg(input.loadKg, { mode: loadModeOf(exercise), bodyMassKg: bodyMassAt(masses, null) }) ?? input.loadKg
+  if (!(moved > 0)) throw AppError.badRequest('Enter a set with a load', [{ path: 'loadKg', message: 'The load moved must be above zero' }])
+  const e1rmKg = estimateOneRepMax(moved, input.reps, { rir: input.rir }).e1rm
+  const [estimate] = await StartEstimateModel.findOrCreate({
+    where: { athleteId: lifter.id, exerciseId: exercise.id },
+    defaults: { athleteId: lifter.id, exerciseId: exercise.id, e1rmKg, loadKg: input.loadKg, reps: input.reps, source: input.source, setBy: lifter.id },
+  })
+  await estimate.update({ e1rmKg, loadKg: input.loadKg, reps: input.reps, source: input.source, setBy: lifter.id })
+
+  const open = blockSets.filter((s) => s.loggedAt === null && !s.skipped)
+  const doneWorking = blockSets.filter((s) => s.kind !== 'warmup' && !open.includes(s)).length
+  const slot = input.slotId !== null ? await SlotModel.findByPk(input.slotId, { include: [{ model: ExerciseModel, as: 'exercise' }] }) : null
+  const role = (blockSets[0].role ?? 'accessory') as SlotRole
+  const adjustment = slot ? (await SlotAdjustmentModel.findOne({ where: { athleteId: lifter.id, slotId: slot.id } })) : null
+  const block = {
+    exercise, slotId: input.slotId, role, scheme: parseScheme(slot?.scheme), restSec: slot?.restSec ?? exercise.defaultRestSec,
+    extraSets: adjustment?.extraSets ?? 0,
+  }
+  const context = await planningContext(lifter, [{ exerciseId: exercise.id, slotId: input.slotId }], sessionId)
+  let rows = plannedRows(sessionId, [block], context, 0, await patternsBefore(sessionId, blockSets[0].position))
+  if (doneWorking > 0) rows = rows.filter((r) => r.kind !== 'warmup').slice(doneWorking)
+  const start = blockSets.length - open.length > 0 ? Math.max(...blockSets.filter((s) => !open.includes(s)).map((s) => s.position)) + 1 : blockSets[0].position
+  await SessionModel.sequelize!.transaction(async (transaction) => {
+    await SetLogModel.destroy({ where: { id: open.map((s) => s.id) }, transaction })
+    await SetLogModel.bulkCreate(rows.map((r, i) => ({ ...r, position: start + i })), { transaction })
+  })
+  return runSessionView(session, lifter)
 }

@@ -1,10 +1,12 @@
 import { Op, col, fn } from 'sequelize'
-import { detectPlateau, nextSteps, type NextStepOption, type PerformedSet } from '@shared/domain/progression'
-import { bestE1rm, sessionRecords, type LoadReps } from '@shared/domain/records'
-import type { ExerciseReport, NextStepOptionView, SessionReport } from '@shared/schemas/run.schema'
+import { reportLift, type LiftReport } from '@shared/domain/lift-report'
+import type { NextStepOption, PerformedSet, PlateauOption } from '@shared/domain/progression'
+import type { ExerciseReport, NextStepOptionView, PlateauOptionView, SessionReport, TakenOption } from '@shared/schemas/run.schema'
 import { NextStepModel, SessionModel, SetLogModel, type UserModel } from '../db'
 import { toSessionSummary } from './presenters'
-import { blockKey, equipmentOf, gymOf, historyFor, sessionBlocks } from './session-planning.service'
+import {
+  blockKey, bodyMassAt, bodyMassEntries, gymOf, historyFor, liftOf, sessionBlocks, type BlockHistory, type SessionBlock,
+} from './session-planning.service'
 
 function optionView(option: NextStepOption | null | undefined): NextStepOptionView | null {
   if (!option) return null
@@ -15,28 +17,64 @@ function optionView(option: NextStepOption | null | undefined): NextStepOptionVi
     repsMin: option.repsMin,
     repsMax: option.repsMax,
     workChangePct: option.workChangePct,
+    gain: option.gain,
     reason: option.reason,
   }
 }
 
+function plateauOptionView(option: PlateauOption): PlateauOptionView {
+  return {
+    kind: option.kind,
+    reason: option.reason,
+    targetLoadKg: option.target?.loadKg ?? null,
+    targetReps: option.targetReps ?? null,
+    sets: option.sets ?? null,
+    rotate: option.rotate ?? null,
+  }
+}
+
+const isDone = (s: SetLogModel) => !s.skipped && s.loggedAt !== null && s.loadKg !== null && (s.reps ?? 0) > 0
+
+/** A block's working sets as done, with what was planned for them. */
+export function performedSets(sets: readonly SetLogModel[]): PerformedSet[] {
+  return sets.filter((s) => s.kind !== 'warmup' && isDone(s)).map((s) => ({
+    kind: s.kind === 'warmup' ? 'straight' : s.kind,
+    loadKg: s.loadKg!,
+    reps: s.reps!,
+    repsMin: s.targetRepsMin ?? s.reps!,
+    repsMax: s.targetRepsMax ?? s.reps!,
+    rir: s.failure ? 0 : s.rir,
+    targetLoadKg: s.targetLoadKg,
+    targetReps: s.targetReps,
+    targetRir: s.toFailure ? null : s.targetRir,
+  }))
+}
+
+export interface SessionLift {
+  block: SessionBlock
+  report: LiftReport
+  history: BlockHistory | undefined
+  bodyMassKg: number | null
+}
+
 /**
- * The finish screen and the coach's view of a session: per exercise the work done, records,
- * estimated-1RM change, the engine's next step (with a smaller alternative) and plateau options,
- * and what the lifter took. Computed from stored sets, so it reads the same every time.
+ * Each exercise block of a finished (or running) session with its lift report, as it read when
+ * the session was done: only earlier sessions count. The summary and the review desk both read
+ * this, so they show the same figures.
  */
-export async function buildReport(session: SessionModel, athlete: UserModel): Promise<SessionReport> {
+export async function sessionLifts(session: SessionModel, athlete: UserModel): Promise<SessionLift[]> {
   const blocks = await sessionBlocks(session.id)
   const exerciseIds = [...new Set(blocks.map((b) => b.exercise.id))]
-  // The report reads as it did when the session was finished: only earlier sessions count.
   const before = session.completedAt ?? undefined
-  const [gym, history, bestRows, taken] = await Promise.all([
+  const masses = await bodyMassEntries(athlete.id)
+  const [gym, history, bestRows] = await Promise.all([
     gymOf(athlete),
-    historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id, before),
+    historyFor(athlete.id, blocks.map((b) => ({ exerciseId: b.exercise.id, slotId: b.slotId })), session.id, before, masses),
     // Best reps at each load before this session: enough to find every record (see records.ts).
-    SetLogModel.findAll({
+    exerciseIds.length === 0 ? Promise.resolve([]) : SetLogModel.findAll({
       attributes: ['exerciseId', 'loadKg', [fn('MAX', col('reps')), 'reps']],
       where: {
-        exerciseId: exerciseIds, kind: { [Op.ne]: 'warmup' }, reps: { [Op.gt]: 0 }, loadKg: { [Op.gt]: 0 },
+        exerciseId: exerciseIds, kind: { [Op.ne]: 'warmup' }, reps: { [Op.gt]: 0 }, loadKg: { [Op.ne]: null },
         skipped: false, sessionId: { [Op.ne]: session.id },
       },
       include: [
@@ -50,54 +88,76 @@ export async function buildReport(session: SessionModel, athlete: UserModel): Pr
       group: ['exerciseId', 'loadKg'],
       raw: true,
     }) as unknown as Promise<Array<{ exerciseId: number; loadKg: number; reps: number }>>,
+  ])
+  const bodyMassKg = bodyMassAt(masses, session.completedAt ?? session.startedAt ?? null)
+  // Hard sets per movement pattern in this session, for the caps across a session.
+  const patternSets = new Map<string, number>()
+  for (const b of blocks) {
+    patternSets.set(b.exercise.pattern, (patternSets.get(b.exercise.pattern) ?? 0) + b.sets.filter((s) => s.kind !== 'warmup' && isDone(s)).length)
+  }
+  return blocks.map((block) => {
+    const blockHistory = history.get(blockKey(block.exercise.id, block.slotId))
+    const sets = performedSets(block.sets)
+    const report = reportLift({
+      role: block.role,
+      version: session.versionLabel ?? undefined,
+      lift: liftOf(gym, block.exercise),
+      history: blockHistory?.exposures ?? [],
+      current: { sets, bodyMassKg, deload: block.sets.some((s) => s.deload) },
+      recordHistory: bestRows.filter((r) => r.exerciseId === block.exercise.id).map((r) => ({ loadKg: r.loadKg, reps: Number(r.reps) })),
+      patternSetsInSession: patternSets.get(block.exercise.pattern) ?? 0,
+    })
+    return { block, report, history: blockHistory, bodyMassKg }
+  })
+}
+
+/**
+ * The finish screen and the coach's view of a session: per exercise the work done, records,
+ * estimated-1RM change, the engine's next step (with the other kind of step) and plateau options,
+ * and what the lifter took. Computed from stored sets, so it reads the same every time.
+ */
+export async function buildReport(session: SessionModel, athlete: UserModel, lifts?: SessionLift[]): Promise<SessionReport> {
+  const [all, taken] = await Promise.all([
+    lifts ? Promise.resolve(lifts) : sessionLifts(session, athlete),
     NextStepModel.findAll({ where: { sessionId: session.id } }),
   ])
-
-  const exercises: ExerciseReport[] = blocks.map(({ exercise, slotId, role, sets: blockSets }) => {
-    const equipment = equipmentOf(gym, exercise)
-    const done = blockSets.filter(
-      (s) => s.kind !== 'warmup' && !s.skipped && s.loggedAt !== null && s.loadKg !== null && (s.reps ?? 0) > 0,
-    )
-    const working: PerformedSet[] = done.map((s) => ({
-      kind: s.kind === 'warmup' ? 'straight' : s.kind,
-      loadKg: s.loadKg!,
-      reps: s.reps!,
-      repsMin: s.targetRepsMin ?? s.reps!,
-      repsMax: s.targetRepsMax ?? s.reps!,
-      rir: s.failure ? 0 : s.rir,
-    }))
-    const past = history.get(blockKey(exercise.id, slotId))?.exposures ?? []
-    const exposures = working.length > 0 ? [...past, { sets: working }] : past
-    const step = working.length > 0 ? nextSteps(exposures, equipment)[0] : undefined
-    const plateau = working.length > 0 ? detectPlateau(exposures, { role, equipment, version: session.versionLabel ?? undefined }) : null
-    const loadReps: LoadReps[] = working.map((w) => ({ loadKg: w.loadKg, reps: w.reps }))
-    const best = bestE1rm(loadReps)
-    const lastBest = past.length > 0 ? bestE1rm(past.at(-1)!.sets) : null
+  const exercises: ExerciseReport[] = all.map(({ block, report, bodyMassKg }) => {
+    const { exercise, slotId } = block
     const tookStep = taken.find((t) => t.exerciseId === exercise.id && t.slotId === slotId)
+    const mode = (exercise.loadMode ?? 'external') as ExerciseReport['loadMode']
     return {
       exerciseId: exercise.id,
       slotId,
       name: exercise.name,
-      workingSets: working.length,
-      volumeKg: working.reduce((sum, w) => sum + w.loadKg * w.reps, 0),
-      bestE1rmKg: best?.e1rmKg ?? null,
-      previousBestE1rmKg: lastBest?.e1rmKg ?? null,
-      e1rmChangePct: best && lastBest ? (best.e1rmKg / lastBest.e1rmKg - 1) * 100 : null,
-      records: sessionRecords(loadReps, bestRows.filter((r) => r.exerciseId === exercise.id).map((r) => ({ loadKg: r.loadKg, reps: Number(r.reps) }))),
-      nextStep: optionView(step),
-      alternative: optionView(step?.alternative),
-      plateau: plateau?.plateau
-        ? { exposuresWithoutImprovement: plateau.exposuresWithoutImprovement, options: plateau.options.map((o) => ({ kind: o.kind, reason: o.reason })) }
+      loadMode: mode,
+      bodyMassKg: mode === 'external' ? null : bodyMassKg,
+      workingSets: block.sets.filter((s) => s.kind !== 'warmup' && isDone(s)).length,
+      volumeKg: report.volumeKg,
+      bestE1rmKg: report.change.e1rmKg,
+      previousBestE1rmKg: report.change.previousE1rmKg,
+      e1rmChangePct: report.change.e1rmChangePct,
+      asPlanned: report.change.asPlanned,
+      regression: report.change.regression,
+      deload: report.deload,
+      records: report.records,
+      nextStep: optionView(report.nextStep),
+      alternative: optionView(report.nextStep?.alternative),
+      plateau: report.plateau?.plateau
+        ? {
+            exposuresWithoutProgress: report.plateau.exposuresWithoutProgress,
+            window: report.plateau.window,
+            options: report.plateau.options.map(plateauOptionView),
+          }
         : null,
-      taken:
-        tookStep && tookStep.targetLoadKg !== null && tookStep.targetReps !== null && tookStep.status !== 'proposed'
-          ? {
-              targetLoadKg: tookStep.targetLoadKg,
-              targetReps: tookStep.targetReps,
-              status: tookStep.status,
-              by: (tookStep.reason as { by?: string } | null)?.by === 'coach' ? ('coach' as const) : ('lifter' as const),
-            }
-          : null,
+      taken: tookStep && tookStep.status !== 'proposed'
+        ? {
+            option: (tookStep.option ?? 'next_step') as TakenOption,
+            targetLoadKg: tookStep.targetLoadKg,
+            targetReps: tookStep.targetReps,
+            status: tookStep.status,
+            by: (tookStep.reason as { by?: string } | null)?.by === 'coach' ? ('coach' as const) : ('lifter' as const),
+          }
+        : null,
     }
   })
   const start = session.startedAt?.getTime()

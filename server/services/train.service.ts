@@ -1,12 +1,11 @@
 import type { Today, TodayQuery, TodaySlot } from '@shared/schemas/train.schema'
 import { todayInRotation, type TodayInRotation } from '@shared/domain/rotation'
 import { describeScheme } from '@shared/domain/scheme-summary'
-import type { SlotRole } from '@shared/domain/schemes'
 import {
   AssignmentModel, DayVersionModel, ExerciseModel, PlanDayModel, PlanModel, SessionModel, SlotModel,
   type UserModel,
 } from '../db'
-import { equipmentOf, gymOf, historyFor, blockKey, parseScheme, planBlock } from './session-planning.service'
+import { planDay } from './session-planning.service'
 
 const DAY_MS = 86_400_000
 
@@ -81,34 +80,22 @@ export async function getToday(lifter: UserModel, query: TodayQuery): Promise<To
     ? { dayId: days[today.nextTraining.dayIndex].id, name: days[today.nextTraining.dayIndex].name, version: today.nextTraining.version }
     : null
   const slots = day.isRest ? [] : await slotsOf(day.id, today.version)
-  const [gym, history] = await Promise.all([
-    gymOf(lifter),
-    historyFor(lifter.id, slots.map((s) => ({ exerciseId: s.exerciseId, slotId: s.id }))),
-  ])
-  const preview: TodaySlot[] = slots.map((slot) => {
-    const planned = planBlock({
-      role: slot.role as SlotRole,
-      scheme: parseScheme(slot.scheme),
-      equipment: equipmentOf(gym, slot.exercise!),
-      history: history.get(blockKey(slot.exerciseId, slot.id)),
-      restSec: slot.restSec,
-    })
-    return {
-      slotId: slot.id,
-      exerciseName: slot.exercise?.name ?? '',
-      role: slot.role,
-      scheme: describeScheme(slot.scheme),
-      targets: planned
-        .filter((p) => p.kind !== 'warmup')
-        .map((p) => ({
-          kind: p.kind as 'top' | 'backoff' | 'straight',
-          targetLoadKg: p.targetLoadKg,
-          repsMin: p.targetRepsMin,
-          repsMax: p.targetRepsMax,
-          targetReps: p.targetReps,
-        })),
-    }
-  })
+  const planned = await planDay(lifter, slots)
+  const preview: TodaySlot[] = planned.map(({ block, planned: sets }) => ({
+    slotId: block.slotId!,
+    exerciseName: block.exercise.name,
+    role: block.role,
+    scheme: describeScheme(slots.find((s) => s.id === block.slotId)?.scheme),
+    targets: sets
+      .filter((p) => p.kind !== 'warmup')
+      .map((p) => ({
+        kind: p.kind as 'top' | 'backoff' | 'straight',
+        targetLoadKg: p.targetLoadKg,
+        repsMin: p.targetRepsMin,
+        repsMax: p.targetRepsMax,
+        targetReps: p.targetReps,
+      })),
+  }))
   return {
     plan,
     day: { id: day.id, name: day.name, isRest: day.isRest, version: today.version, slots: preview },

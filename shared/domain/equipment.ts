@@ -103,6 +103,29 @@ export const KG_COMPETITION_SET_15KG_BAR: BarbellEquipment = {
 }
 
 /**
+ * A common commercial kilogram gym: a 20 kg bar, no collars counted (many lifters use spring
+ * clips and do not weigh them; a gym that counts collars says so in its profile) and plates of
+ * 25, 20, 15, 10, 5, 2.5 and 1.25 kg, the 1.25 kg pair making a 2.5 kg step on the bar.
+ * The plate sizes and pair counts are common practice, no published source.
+ */
+export const KG_GYM_SET: BarbellEquipment = {
+  kind: 'barbell',
+  name: 'Kilogram gym set, 20 kg bar',
+  unit: 'kg',
+  barMass: IWF_MEN_BAR_KG,
+  collarMass: 0,
+  plates: [
+    { mass: 25, count: 6 },
+    { mass: 20, count: 2 },
+    { mass: 15, count: 2 },
+    { mass: 10, count: 2 },
+    { mass: 5, count: 2 },
+    { mass: 2.5, count: 2 },
+    { mass: 1.25, count: 2 },
+  ],
+}
+
+/**
  * A common pound gym: 45 lb bar; 45, 35, 25, 10, 5 and 2.5 lb plates; no collars counted.
  * Common practice, no standards body. (Many "45 lb" bars are really 20 kg = 44.09 lb.)
  */

@@ -8,6 +8,7 @@ export {
   IWF_PLATES_KG,
   IWF_WOMEN_BAR_KG,
   KG_COMPETITION_SET,
+  KG_GYM_SET,
   KG_COMPETITION_SET_15KG_BAR,
   LB_GYM_SET,
   anyLoadSchema,
@@ -38,6 +39,7 @@ export * from './schemes'
 export * from './warmup'
 export * from './progression'
 export * from './planned-sets'
+export * from './find-load-ramp'
 export * from './gym'
 export * from './rotation'
 export * from './records'

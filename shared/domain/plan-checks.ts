@@ -5,6 +5,7 @@
  * Counting (common practice, no published source): a working set counts as one hard set for
  * each primary muscle and half a set for each secondary muscle; warm-ups do not count.
  */
+import { MAX_HARD_SETS_PER_PATTERN } from './progression'
 import { MAX_WORKING_SETS_ANY, MAX_WORKING_SETS_PRIMARY, type SlotRole } from './schemes'
 
 /**
@@ -27,6 +28,8 @@ export interface CheckSlot {
   /** Working sets in the slot's scheme. */
   workingSets: number
   exerciseName: string
+  /** The exercise's movement pattern (squat, hinge...), for the caps across a session. */
+  pattern?: string
   primaryMuscles: readonly string[]
   secondaryMuscles: readonly string[]
 }
@@ -51,6 +54,8 @@ export type PlanWarningCode =
   | 'MUSCLE_UNDER_TWICE_A_WEEK'
   | 'MUSCLE_LOW_VOLUME'
   | 'MUSCLE_VERY_HIGH_VOLUME'
+  | 'EXERCISE_OVER_SESSION_CAP'
+  | 'PATTERN_OVER_SESSION_CAP'
 
 export interface PlanWarning {
   code: PlanWarningCode
@@ -112,6 +117,9 @@ export function checkPlan(days: readonly CheckDay[], trainingDaysPerWeek = defau
         for (const m of slot.secondaryMuscles) add(m, slot.workingSets / 2)
       }
       for (const [m, n] of setsToday) if (n >= 1) hits.set(m, (hits.get(m) ?? 0) + 1)
+      for (const w of sessionCapWarnings(day.versions[label])) {
+        warnings.push({ ...w, message: `${day.name} ${label}: ${w.message}`, values: { ...w.values, day: day.name, version: label } })
+      }
     }
   }
 
@@ -146,4 +154,61 @@ export function checkPlan(days: readonly CheckDay[], trainingDaysPerWeek = defau
     }
   }
   return { trainingDaysPerWeek: round1(trainingDaysPerWeek), muscles, warnings }
+}
+
+/** Multi-joint movement patterns: their exercises are compounds (common practice). */
+export const COMPOUND_PATTERNS: ReadonlySet<string> = new Set([
+  'horizontal_push', 'vertical_push', 'horizontal_pull', 'vertical_pull', 'squat', 'hinge', 'lunge',
+])
+
+export interface SessionCapSlot {
+  role: SlotRole
+  exerciseName: string
+  pattern?: string
+  workingSets: number
+}
+
+const patternWords = (pattern: string) => pattern.replaceAll('_', ' ')
+
+/**
+ * Caps across one session, over every slot of the day (common practice, no published source): at
+ * most MAX_WORKING_SETS_PRIMARY hard sets of one compound exercise and MAX_HARD_SETS_PER_PATTERN of
+ * one movement pattern, however the sets are spread over slots. (A slot's own cap is checked by
+ * its scheme.)
+ */
+export function sessionCapWarnings(slots: readonly SessionCapSlot[]): PlanWarning[] {
+  const warnings: PlanWarning[] = []
+  const byExercise = new Map<string, { sets: number; compound: boolean; slots: number }>()
+  const byPattern = new Map<string, { sets: number; exercises: Set<string> }>()
+  for (const slot of slots) {
+    const compound = slot.role === 'compound_primary' || (slot.pattern !== undefined && COMPOUND_PATTERNS.has(slot.pattern))
+    const e = byExercise.get(slot.exerciseName) ?? { sets: 0, compound: false, slots: 0 }
+    byExercise.set(slot.exerciseName, { sets: e.sets + slot.workingSets, compound: e.compound || compound, slots: e.slots + 1 })
+    if (slot.pattern) {
+      const p = byPattern.get(slot.pattern) ?? { sets: 0, exercises: new Set<string>() }
+      p.sets += slot.workingSets
+      p.exercises.add(slot.exerciseName)
+      byPattern.set(slot.pattern, p)
+    }
+  }
+  for (const [exercise, e] of byExercise) {
+    // One slot over its own cap is reported by that slot's check; here only sums over slots.
+    if (e.slots > 1 && e.compound && e.sets > MAX_WORKING_SETS_PRIMARY) {
+      warnings.push({
+        code: 'EXERCISE_OVER_SESSION_CAP',
+        message: `${exercise}: ${e.sets} hard sets in one session, the cap for a compound exercise is ${MAX_WORKING_SETS_PRIMARY}`,
+        values: { exercise, sets: e.sets, cap: MAX_WORKING_SETS_PRIMARY },
+      })
+    }
+  }
+  for (const [pattern, p] of byPattern) {
+    if (p.sets > MAX_HARD_SETS_PER_PATTERN) {
+      warnings.push({
+        code: 'PATTERN_OVER_SESSION_CAP',
+        message: `${patternWords(pattern)}: ${p.sets} hard sets in one session over ${p.exercises.size} ${p.exercises.size === 1 ? 'exercise' : 'exercises'}, the cap for one movement pattern is ${MAX_HARD_SETS_PER_PATTERN}`,
+        values: { pattern, sets: p.sets, exercises: p.exercises.size, cap: MAX_HARD_SETS_PER_PATTERN },
+      })
+    }
+  }
+  return warnings
 }

@@ -8,7 +8,11 @@ export type ReasonCode =
   // next step: double progression
   | 'ADD_REP_BELOW_TOP_OF_RANGE'
   | 'ADD_LOAD_AT_TOP_OF_RANGE'
-  | 'SMALLER_JUMP_AS_LOAD_STEP'
+  | 'LOAD_STEP_SAME_REPS'
+  | 'ADD_LOAD_AFTER_MISSED_REP'
+  | 'LARGER_JUMP_FAR_ABOVE_RANGE'
+  | 'HOLD_BELOW_RANGE'
+  | 'CUT_LOAD_BELOW_RANGE'
   | 'NO_HEAVIER_LOAD_AVAILABLE'
   // next step: NSCA 2-for-2
   | 'NSCA_2_FOR_2_MET'

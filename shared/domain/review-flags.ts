@@ -3,13 +3,12 @@
  * glance what needs a look. Thresholds are the product's choices (common practice, no
  * published source); each flag carries its numbers.
  */
-import { estimateOneRepMax } from './e1rm'
-import { detectPlateau, type Exposure } from './progression'
-import type { Equipment } from './equipment'
-import type { SlotRole } from './schemes'
+import type { LiftReport } from './lift-report'
+import { REGRESSION_PCT } from './lift-progress'
 
-/** A working set this much below last time's same set (estimated 1RM) counts as a regression. */
-export const REGRESSION_PCT = 5
+
+export { REGRESSION_PCT }
+
 /** A top set this many reps under the bottom of its range is "far short". */
 export const FAR_SHORT_REPS = 2
 /** A session with at least this share of its planned working sets not done was cut short. */
@@ -29,14 +28,14 @@ export interface ReviewFlag {
 
 export interface ReviewBlock {
   exercise: string
-  role: SlotRole
-  equipment: Equipment
   /** Planned working sets of this session, done or not, in order. */
   planned: Array<{ kind: 'top' | 'backoff' | 'straight'; repsMin: number | null; repsMax: number | null; done: { loadKg: number; reps: number } | null }>
-  /** Earlier exposures of the same slot, oldest first. */
-  history: Exposure[]
-  /** This session's exposure (working sets done). */
-  exposure: Exposure
+  /**
+   * The lift's report for this session (lift-report.ts): the same comparison the summary shows,
+   * so a set done as planned is never a regression and a lift is never plateaued on a day it
+   * set a record.
+   */
+  lift: LiftReport
 }
 
 export interface ReviewInput {
@@ -47,8 +46,6 @@ export interface ReviewInput {
   daysSincePrevious: number | null
   restDaysBetween: number
 }
-
-const e1rm = (loadKg: number, reps: number) => (reps > 0 && loadKg > 0 ? estimateOneRepMax(loadKg, Math.min(reps, 50)).e1rm : 0)
 
 export function reviewFlags(input: ReviewInput): ReviewFlag[] {
   const flags: ReviewFlag[] = []
@@ -61,20 +58,11 @@ export function reviewFlags(input: ReviewInput): ReviewFlag[] {
     if (top?.done && top.repsMin !== null && top.done.reps <= top.repsMin - FAR_SHORT_REPS) {
       flags.push({ code: 'top_set_far_short', exercise: block.exercise, values: { reps: top.done.reps, repsMin: top.repsMin, repsMax: top.repsMax ?? top.repsMin } })
     }
-    const last = block.history.at(-1)
-    if (last) {
-      const worst = block.exposure.sets.reduce<{ dropPct: number; index: number } | null>((acc, set, i) => {
-        const before = last.sets[i]
-        if (!before) return acc
-        const dropPct = (1 - e1rm(set.loadKg, set.reps) / e1rm(before.loadKg, before.reps)) * 100
-        return dropPct > (acc?.dropPct ?? REGRESSION_PCT) ? { dropPct, index: i } : acc
-      }, null)
-      if (worst) flags.push({ code: 'regression', exercise: block.exercise, values: { dropPct: Math.round(worst.dropPct * 10) / 10, set: worst.index + 1 } })
+    const { change, plateau } = block.lift
+    if (change.regression && change.e1rmChangePct !== null) {
+      flags.push({ code: 'regression', exercise: block.exercise, values: { e1rmChangePct: Math.round(change.e1rmChangePct * 10) / 10 } })
     }
-    if (block.exposure.sets.length > 0) {
-      const plateau = detectPlateau([...block.history, block.exposure], { role: block.role, equipment: block.equipment })
-      if (plateau.plateau) flags.push({ code: 'plateau', exercise: block.exercise, values: { exposures: plateau.exposuresWithoutImprovement } })
-    }
+    if (plateau?.plateau) flags.push({ code: 'plateau', exercise: block.exercise, values: { exposures: plateau.exposuresWithoutProgress } })
   }
   if (planned > 0 && (planned - done) / planned >= CUT_SHORT_SHARE) {
     flags.push({ code: 'cut_short', values: { done, planned } })

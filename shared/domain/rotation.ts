@@ -58,3 +58,37 @@ export function todayInRotation(
   }
   return { ...entry, rotationIndex: index, isRest, nextTraining }
 }
+
+export interface RotationSlot {
+  slotId: number
+  pattern: string
+  exerciseId: number
+}
+
+export interface RotationCandidate {
+  id: number
+  pattern: string
+}
+
+/**
+ * Fresh exercises for one day's version after a plateau: for each slot, an exercise of the same
+ * movement pattern that neither version of that day uses (nor an earlier slot of this rotation),
+ * preferring one the plan does not use at all; library order breaks ties. Slots with no
+ * candidate keep their exercise (they are left out of the answer).
+ */
+export function freshExercisesFor(
+  slots: readonly RotationSlot[],
+  otherVersion: readonly (RotationSlot | undefined)[],
+  usedInPlan: ReadonlySet<number>,
+  library: readonly RotationCandidate[],
+): Array<{ slotId: number; fromExerciseId: number; toExerciseId: number }> {
+  const takenHere = new Set<number>()
+  return slots.flatMap((slot, i) => {
+    const avoid = new Set([slot.exerciseId, otherVersion[i]?.exerciseId, ...takenHere])
+    const candidates = library.filter((e) => e.pattern === slot.pattern && !avoid.has(e.id))
+    const fresh = candidates.find((e) => !usedInPlan.has(e.id)) ?? candidates[0]
+    if (!fresh) return []
+    takenHere.add(fresh.id)
+    return [{ slotId: slot.slotId, fromExerciseId: slot.exerciseId, toExerciseId: fresh.id }]
+  })
+}

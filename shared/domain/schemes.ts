@@ -5,7 +5,8 @@
 import { z } from 'zod/mini'
 import { estimateOneRepMax, loadForReps, type E1rmFormula } from './e1rm'
 import { EngineError, MAX_REPS, assertReps } from './errors'
-import { roundDownToLoadable, type Equipment, type LoadOption } from './equipment'
+import { atOrAboveGrid, atOrBelowGrid, compileEquipment, kgToGrid, optionFromGrid, type Equipment, type LoadOption } from './equipment'
+import { movedLoadKg, type LoadReading } from './lift-progress'
 import { reason, type Reason } from './reasons'
 
 export const SLOT_ROLES = ['compound_primary', 'accessory', 'isolation'] as const
@@ -60,9 +61,12 @@ export type SchemeSet = z.infer<typeof schemeSetSchema>
 
 export const setSchemeSchema = z.object({
   sets: z.array(schemeSetSchema).check(z.minLength(1), z.maxLength(MAX_WORKING_SETS_ANY)),
-  /** Warm-up sets before the first working set. */
+  /**
+   * Warm-ups before the first working set: true lets the engine ramp up whenever the lift needs it
+   * (a barbell or compound lift well above its lightest load); false turns them off for this slot.
+   */
   warmup: z.boolean(),
-  /** How many warm-ups; null = from the working load (primary) or 1 (others). */
+  /** How many warm-ups; null = from the working load. */
   warmupSets: z.nullable(z.int().check(z.gte(1), z.lte(5))),
 }).check(
   z.refine((s) => s.sets.every((set, i) => (set.kind === 'top' ? i === 0 : true)), {
@@ -110,20 +114,31 @@ export const DEFAULT_SCHEMES: Readonly<Record<SlotRole, SetScheme>> = {
   },
   accessory: {
     sets: [straight(8, 10, null, 1), straight(10, 12, 10, 1), straight(12, 15, 10, 1)],
-    warmup: false,
+    warmup: true,
     warmupSets: null,
   },
   isolation: {
     sets: [straight(12, 20, null, null), straight(12, 20, 0, null)],
-    warmup: false,
+    warmup: true,
     warmupSets: null,
   },
+}
+
+/**
+ * An accessory that shares its movement pattern with the day's main lift: two sets of 8-10 and
+ * 10-12, so the pattern stays within MAX_HARD_SETS_PER_PATTERN hard sets in the session (common
+ * practice, no published source).
+ */
+export const ACCESSORY_TWO_SETS_SCHEME: SetScheme = {
+  sets: [straight(8, 10, null, 1), straight(10, 12, 10, 1)],
+  warmup: true,
+  warmupSets: null,
 }
 
 /** The other isolation default a plan may pick: three sets of 10-15. */
 export const ISOLATION_THREE_SETS_SCHEME: SetScheme = {
   sets: [straight(10, 15, null, null), straight(10, 15, 0, null), straight(10, 15, 0, null)],
-  warmup: false,
+  warmup: true,
   warmupSets: null,
 }
 
@@ -159,6 +174,8 @@ export interface BackoffInput {
   repsMin: number
   repsMax: number
   equipment: Equipment
+  /** How the logged load relates to the load moved (bodyweight and assisted lifts); as logged by default. */
+  reading?: LoadReading
   formula?: E1rmFormula
 }
 
@@ -186,10 +203,13 @@ export function backoffTarget(input: BackoffInput): BackoffTarget {
     throw new EngineError('INVALID_SCHEME', 'Back-off repsMin must not exceed repsMax', { repsMin, repsMax })
   }
   const formula = input.formula ?? 'epley'
-  const { e1rm } = estimateOneRepMax(topLoadKg, topReps, { formula, rir: input.topRir ?? 0 })
-  const raw = loadForReps(e1rm, repsMax, formula)
-  const target = roundDownToLoadable(Math.min(raw, topLoadKg), equipment)
-  const dropPct = topLoadKg > 0 ? (1 - target.loadKg / topLoadKg) * 100 : 0
+  const reading = input.reading ?? { mode: 'external' }
+  const topMoved = movedLoadKg(topLoadKg, reading) ?? topLoadKg
+  const { e1rm } = estimateOneRepMax(topMoved, topReps, { formula, rir: input.topRir ?? 0 })
+  const raw = Math.min(loadForReps(e1rm, repsMax, formula), topMoved)
+  const target = loadableAtMostMoved(raw, reading, equipment)
+  const targetMoved = movedLoadKg(target.loadKg, reading) ?? target.loadKg
+  const dropPct = topMoved > 0 ? (1 - targetMoved / topMoved) * 100 : 0
   return {
     target,
     targetReps: repsMax,
@@ -210,4 +230,20 @@ export function backoffTarget(input: BackoffInput): BackoffTarget {
       () => `Top set ${topReps} reps -> estimated 1RM ${e1rm.toFixed(1)}; load for ${repsMax} reps, ${dropPct.toFixed(1)} % lighter`,
     ),
   }
+}
+
+/**
+ * The loadable load that moves at most `movedKg`: rounded down for a load, and for an assisted
+ * lift the least help that keeps the load moved at or under it; the equipment's lightest (or its
+ * most help) when nothing is light enough.
+ */
+export function loadableAtMostMoved(movedKg: number, reading: LoadReading, equipment: Equipment): LoadOption {
+  const c = compileEquipment(equipment)
+  const body = reading.bodyMassKg ?? 0
+  const known = reading.mode === 'external' || (reading.bodyMassKg ?? 0) > 0
+  const logged = !known || reading.mode === 'external' ? movedKg : reading.mode === 'bodyweight' ? movedKg - body : body - movedKg
+  if (reading.mode === 'assisted' && known) {
+    return optionFromGrid(c, atOrAboveGrid(c, Math.max(kgToGrid(c, logged), c.minGrid)) ?? c.maxGrid)
+  }
+  return optionFromGrid(c, atOrBelowGrid(c, Math.min(kgToGrid(c, Math.max(0, logged)), c.maxGrid)) ?? c.minGrid)
 }

@@ -1,5 +1,6 @@
 import { z } from './zod'
 import { equipmentSchema } from '../domain/equipment'
+import { exerciseEquipmentSchema } from './exercise.schema'
 import { slotRoleSchema } from './train.schema'
 import { sessionSummarySchema, setKindSchema, versionLabelSchema } from './session.schema'
 
@@ -45,6 +46,8 @@ export const runSetSchema = z.object({
   loggedAt: z.nullable(z.string()),
   /** The client's time of the last edit: the later edit wins when two devices disagree. */
   editedAt: z.nullable(z.string()),
+  /** Planned as a deload (lighter on purpose, short of failure). */
+  deload: z._default(z.boolean(), false),
 })
 export type RunSet = z.infer<typeof runSetSchema>
 
@@ -65,6 +68,15 @@ export const runExerciseSchema = z.object({
   restSec: z.int(),
   /** The equipment that loads this exercise in the lifter's gym. */
   equipment: equipmentSchema,
+  /**
+   * How the exercise is loaded (the library's field): tells a plate-loaded sled from a barbell,
+   * which the engine loads alike. Optional: copies kept on a phone before it was sent lack it.
+   */
+  equipmentKind: z.optional(exerciseEquipmentSchema),
+  /** How the logged load reads: as is, added to body mass (bodyweight lifts), or help taken from it. */
+  loadMode: z.enum(['external', 'bodyweight', 'assisted']),
+  /** The lifter's latest body mass (kg) for a bodyweight or assisted lift, or null. */
+  bodyMassKg: z.nullable(z.number()),
   lastTime: z.array(lastTimeSetSchema),
   lastTimeAt: z.nullable(z.string()),
   /** The coach's comments on this exercise's sets last time, for the set card. */
@@ -142,40 +154,75 @@ export type SessionRecord = z.infer<typeof recordSchema>
 
 const reasonSchema = z.object({ code: z.string(), values: z.record(z.string(), z.unknown()), message: z.string() })
 
+/** What a step adds, as the lifter reads it: more reps, more work or more load, in percent (never negative). */
+export const stepGainSchema = z.object({ kind: z.enum(['reps', 'work', 'load']), pct: z.number().check(z.gte(0)) })
+
 export const nextStepOptionSchema = z.object({
-  action: z.enum(['add_rep', 'add_load', 'hold']),
+  action: z.enum(['add_rep', 'add_load', 'hold', 'cut_load']),
   targetLoadKg: z.number(),
   targetReps: z.int(),
   repsMin: z.int(),
   repsMax: z.int(),
   workChangePct: z.nullable(z.number()),
+  gain: stepGainSchema,
   reason: reasonSchema,
 })
 export type NextStepOptionView = z.infer<typeof nextStepOptionSchema>
 
+export const PLATEAU_OPTION_KINDS = ['microload', 'rotate_version', 'add_set', 'deload'] as const
+export const plateauOptionKindSchema = z.enum(PLATEAU_OPTION_KINDS)
+export type PlateauOptionKind = z.infer<typeof plateauOptionKindSchema>
+
 export const plateauOptionSchema = z.object({
-  kind: z.enum(['microload', 'rotate_version', 'add_set', 'deload']),
+  kind: plateauOptionKindSchema,
   reason: reasonSchema,
+  /** microload: the smaller load step and the reps to keep. */
+  targetLoadKg: z.nullable(z.number()),
+  targetReps: z.nullable(z.int()),
+  /** add_set: the working-set count after adding one. */
+  sets: z.nullable(z.int()),
+  /** rotate_version: the version that gets fresh exercises. */
+  rotate: z.nullable(versionLabelSchema),
 })
+export type PlateauOptionView = z.infer<typeof plateauOptionSchema>
+
+/**
+ * What can be taken for next time: the next step, its alternative, an edited target, or one of
+ * the plateau options (each changes what the next session plans).
+ */
+export const takenOptionSchema = z.enum(['next_step', 'alternative', 'edited', ...PLATEAU_OPTION_KINDS])
+export type TakenOption = z.infer<typeof takenOptionSchema>
 
 export const exerciseReportSchema = z.object({
   exerciseId: z.int(),
   slotId: z.nullable(z.int()),
   name: z.string(),
+  /** How the logged load reads: as is, added to body mass, or help taken from it. */
+  loadMode: z.enum(['external', 'bodyweight', 'assisted']),
+  /** The body mass counted for a bodyweight or assisted lift (kg), or null. */
+  bodyMassKg: z.nullable(z.number()),
   workingSets: z.int(),
+  /** Load moved x reps over the working sets (body mass included for a bodyweight lift). */
   volumeKg: z.number(),
   bestE1rmKg: z.nullable(z.number()),
   previousBestE1rmKg: z.nullable(z.number()),
-  /** Change of this session's best estimated 1RM against last time's, in percent. */
+  /** Change of this session's best estimated 1RM against last time's, in percent: the one figure every screen shows. */
   e1rmChangePct: z.nullable(z.number()),
+  /** Every planned set met its plan. */
+  asPlanned: z.boolean(),
+  /** The review desk's regression flag for this lift (never on a session done as planned). */
+  regression: z.boolean(),
+  /** This session was a planned deload of the lift. */
+  deload: z.boolean(),
   records: z.array(recordSchema),
   nextStep: z.nullable(nextStepOptionSchema),
   alternative: z.nullable(nextStepOptionSchema),
-  plateau: z.nullable(z.object({ exposuresWithoutImprovement: z.int(), options: z.array(plateauOptionSchema) })),
-  /** What the lifter took for next time, once taken. */
+  plateau: z.nullable(z.object({ exposuresWithoutProgress: z.int(), window: z.int(), options: z.array(plateauOptionSchema) })),
+  /** What the lifter (or coach) took for next time, once taken. */
   taken: z.nullable(z.object({
-    targetLoadKg: z.number(),
-    targetReps: z.int(),
+    option: takenOptionSchema,
+    targetLoadKg: z.nullable(z.number()),
+    targetReps: z.nullable(z.int()),
     status: z.enum(['taken', 'edited']),
     /** Who chose it: the lifter, or their coach editing it. */
     by: z._default(z.enum(['lifter', 'coach']), 'lifter'),
@@ -190,16 +237,38 @@ export const sessionReportSchema = z.object({
 })
 export type SessionReport = z.infer<typeof sessionReportSchema>
 
-/** Take (or edit) the next step of one or more exercises. */
+/** Take (or edit) the next step of one or more exercises, or a plateau option. */
+export const takeNextStepSchema = z.object({
+  exerciseId: z.int().check(z.positive()),
+  slotId: z.nullable(z.int().check(z.positive())),
+  option: z._default(takenOptionSchema, 'next_step'),
+  /** The target for next time: required for a next step, its alternative and an edit (a plateau option's target is the server's). */
+  targetLoadKg: z.optional(load),
+  targetReps: z.optional(reps.check(z.gte(1))),
+}).check(
+  z.refine((s) => !['next_step', 'alternative', 'edited'].includes(s.option) || (s.targetLoadKg !== undefined && s.targetReps !== undefined), {
+    message: 'Give the load and reps to take',
+    path: ['targetLoadKg'],
+  }),
+)
+export type TakeNextStepInput = z.infer<typeof takeNextStepSchema>
+
 export const takeNextStepsSchema = z.object({
-  steps: z.array(
-      z.object({
-        exerciseId: z.int().check(z.positive()),
-        slotId: z.nullable(z.int().check(z.positive())),
-        targetLoadKg: load,
-        targetReps: reps.check(z.gte(1)),
-        edited: z.boolean(),
-      }),
-    ).check(z.minLength(1), z.maxLength(30)),
+  steps: z.array(takeNextStepSchema).check(z.minLength(1), z.maxLength(30)),
 })
 export type TakeNextStepsInput = z.infer<typeof takeNextStepsSchema>
+
+/**
+ * A recent set the lifter enters on the set card when a lift has no history: the first session's
+ * targets are planned from its estimated 1RM. `rir`: reps left in reserve (the last set of a
+ * find-your-load ramp stops short of failure).
+ */
+export const startFromRecentSetSchema = z.object({
+  exerciseId: z.int().check(z.positive()),
+  slotId: z.nullable(z.int().check(z.positive())),
+  loadKg: load,
+  reps: reps.check(z.gte(1), z.lte(20, 'Use a set of 20 reps or fewer')),
+  rir: z._default(z.int().check(z.gte(0), z.lte(5)), 0),
+  source: z._default(z.enum(['recent_set', 'ramp']), 'recent_set'),
+})
+export type StartFromRecentSetInput = z.infer<typeof startFromRecentSetSchema>

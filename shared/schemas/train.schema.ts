@@ -11,11 +11,11 @@ export const todaySlotSchema = z.object({
   role: slotRoleSchema,
   /** Human summary of the set scheme, e.g. "top set 6-9 to failure + 1 back-off 9-12". */
   scheme: z.string(),
-  /** Today's working-set targets from the engine (loads in kg). */
+  /** Today's working-set targets from the engine (loads in kg; null until a first session has a starting load). */
   targets: z.array(
     z.object({
       kind: z.enum(['top', 'backoff', 'straight']),
-      targetLoadKg: z.number(),
+      targetLoadKg: z.nullable(z.number()),
       repsMin: z.int(),
       repsMax: z.int(),
       targetReps: z.nullable(z.int()),

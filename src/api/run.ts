@@ -4,13 +4,14 @@ import type {
   RunSession,
   RunSet,
   SessionReport,
+  StartFromRecentSetInput,
   StartSessionInput,
   SwapExerciseInput,
   TakeNextStepsInput,
 } from '@shared/schemas/run.schema'
 import { request } from './client'
 
-/** The session runner's endpoints: start, read, log sets, swap, add, finish, take next steps. */
+/** The session runner's endpoints: start, read, log sets, swap, add, give a starting load, finish, take next steps. */
 
 // The runner's store is on the app's start-up path: its answer schemas (zod's work, tens of ms on
 // a slow phone) are built on the first request that needs them, beside that request (client.ts).
@@ -49,6 +50,11 @@ export async function swapExercise(sessionId: number, input: SwapExerciseInput):
 
 export async function addExercise(sessionId: number, input: AddExerciseInput): Promise<RunSession> {
   return (await request('POST', `/sessions/${sessionId}/exercises`, { body: input, schema: sessionEnvelope })).session
+}
+
+/** A recent set (or a find-your-load ramp's last set) as a lift's start: the block's open sets come back planned from it. */
+export async function startFromRecentSet(sessionId: number, input: StartFromRecentSetInput): Promise<RunSession> {
+  return (await request('POST', `/sessions/${sessionId}/start-estimate`, { body: input, schema: sessionEnvelope })).session
 }
 
 export async function completeSession(sessionId: number, input: { completedAt: string; note: string | null }): Promise<SessionReport> {

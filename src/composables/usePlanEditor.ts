@@ -133,6 +133,7 @@ export function toCheckDays(draft: PlanDraft): CheckDay[] {
           role: slot.role,
           workingSets: side.scheme.sets.length,
           exerciseName: side.exerciseName || 'No exercise yet',
+          pattern: side.pattern || undefined,
           primaryMuscles: side.primaryMuscles,
           secondaryMuscles: side.secondaryMuscles,
         }

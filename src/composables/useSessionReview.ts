@@ -1,4 +1,4 @@
-import type { SessionReport, TakeNextStepsInput } from '@shared/schemas/run.schema'
+import type { SessionReport, TakeNextStepInput } from '@shared/schemas/run.schema'
 import type { SessionReview } from '@shared/schemas/review.schema'
 import type { SessionDetail } from '@shared/schemas/session.schema'
 import { getReport, takeNextSteps } from '@/api/run'
@@ -13,12 +13,10 @@ export interface SessionReviewData {
   athleteName: string | null
 }
 
-export type NextStepEdit = Omit<TakeNextStepsInput['steps'][number], 'edited'>
-
-
 /**
  * A coach's review of one finished session: sets target against actual, the report with its
- * next steps, flags and comments; commenting, editing a next step and marking it reviewed.
+ * next steps, flags and comments; commenting, taking a next step for the athlete (a choice the
+ * lifter had, a plateau option or an edited target) and marking it reviewed.
  * `athleteName` comes from the desk row that opened it; without it the desk is asked.
  */
 export function useSessionReview(id: number, athleteName: string | null = null) {
@@ -47,11 +45,11 @@ export function useSessionReview(id: number, athleteName: string | null = null) 
     patch({ review: await markSessionReviewed(id) })
   }
 
-  async function editNextStep(step: NextStepEdit) {
-    const report = await takeNextSteps(id, { steps: [{ ...step, edited: true }] })
-    // The answer's report says who chose each next step, so "Edited by coach" shows from it.
+  async function takeNextStep(step: TakeNextStepInput) {
+    const report = await takeNextSteps(id, { steps: [step] })
+    // The answer's report says who chose each next step, so "Changed by coach" shows from it.
     patch({ report })
   }
 
-  return { ...async, comment, markReviewed, editNextStep }
+  return { ...async, comment, markReviewed, takeNextStep }
 }

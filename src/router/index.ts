@@ -28,11 +28,14 @@ export type RouteName =
   | 'plan'
   | 'athletes'
   | 'athlete-detail'
+  | 'athlete-gym'
+  | 'athlete-start-loads'
   | 'review-desk'
   | 'session-review'
   | 'plans'
   | 'plan-edit'
   | 'me'
+  | 'my-gym'
   | 'admin-users'
   | 'invite-accept'
   | 'forgot-password'
@@ -141,6 +144,20 @@ export const routes: NamedRoute[] = [
     meta: { title: 'Athlete', requiresAuth: true, roles: ['coach'] },
   },
   {
+    path: '/athletes/:id(\\d+)/gym',
+    name: 'athlete-gym',
+    component: () => import('@/views/AthleteGymView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: "Athlete's gym", requiresAuth: true, roles: ['coach'] },
+  },
+  {
+    path: '/athletes/:id(\\d+)/start-loads',
+    name: 'athlete-start-loads',
+    component: () => import('@/views/AthleteStartLoadsView.vue'),
+    props: (route) => ({ id: Number(route.params.id) }),
+    meta: { title: 'Starting loads', requiresAuth: true, roles: ['coach'] },
+  },
+  {
     path: '/review',
     name: 'review-desk',
     component: () => import('@/views/ReviewDeskView.vue'),
@@ -171,6 +188,12 @@ export const routes: NamedRoute[] = [
     name: 'me',
     component: () => import('@/views/MeView.vue'),
     meta: { title: 'Me', requiresAuth: true },
+  },
+  {
+    path: '/me/gym',
+    name: 'my-gym',
+    component: () => import('@/views/MyGymView.vue'),
+    meta: { title: 'My gym', requiresAuth: true, roles: ['lifter'] },
   },
   {
     path: '/admin',

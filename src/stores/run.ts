@@ -1,9 +1,12 @@
 import { computed, onScopeDispose, ref, toRaw, watch } from 'vue'
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { useEventListener } from '@vueuse/core'
+import type { PlanWarning } from '@shared/domain/plan-checks'
 import type { backoffTarget as BackoffTarget } from '@shared/domain/schemes'
 import type { SlotRole } from '@shared/schemas/train.schema'
-import type { LogSetInput, RunExercise, RunSession, RunSet, SessionReport, StartSessionInput } from '@shared/schemas/run.schema'
+import type {
+  LogSetInput, RunExercise, RunSession, RunSet, SessionReport, StartFromRecentSetInput, StartSessionInput,
+} from '@shared/schemas/run.schema'
 import { ApiError } from '@/api/client'
 import * as runApi from '@/api/run'
 import {
@@ -70,11 +73,27 @@ export interface SetResult {
   note?: string | null
 }
 
+/** A recent set of a lift with no history (or the hard set of a find-your-load ramp), load in kg. */
+export type StartingSet = Omit<StartFromRecentSetInput, 'exerciseId' | 'slotId'>
+
 /** Positions are per-exercise blocks of 100 (block i uses i*100 .. i*100+99). */
 const BLOCK_STRIDE = 100
 const MAX_RETRY_MS = 30_000
 
 const isOpen = (s: RunSet) => s.loggedAt === null && !s.skipped
+const isHardSet = (s: RunSet) => s.kind !== 'warmup' && !s.skipped
+
+/**
+ * A copy kept on the phone by an older version lacks the fields added since: read them as that
+ * version meant them (no deload, loads as logged, no body mass).
+ */
+function withCurrentFields(copy: RunSession): RunSession {
+  return {
+    ...copy,
+    exercises: copy.exercises.map((e) => ({ ...e, loadMode: e.loadMode ?? 'external', bodyMassKg: e.bodyMassKg ?? null })),
+    sets: copy.sets.map((s) => ({ ...s, deload: s.deload ?? false })),
+  }
+}
 const sameBlock = (a: { exerciseId: number; slotId: number | null }, b: { exerciseId: number; slotId: number | null }) =>
   a.exerciseId === b.exerciseId && a.slotId === b.slotId
 
@@ -290,7 +309,8 @@ export const useRunStore = defineStore('run', () => {
     const merged = [...copy.sets]
     for (const item of queue.value.filter((i) => i.sessionId === copy.id)) {
       const index = merged.findIndex((s) => s.id === item.setId)
-      const local: RunSet = { ...item.body, id: item.setId, targetReps: item.body.targetReps ?? null }
+      // The log body carries no deload flag (the server plans deloads): the copy's set keeps its own.
+      const local: RunSet = { ...item.body, id: item.setId, targetReps: item.body.targetReps ?? null, deload: merged[index]?.deload ?? false }
       if (index >= 0) merged[index] = local
       else merged.push(local)
     }
@@ -309,7 +329,7 @@ export const useRunStore = defineStore('run', () => {
     queue.value = [...earlier, ...later]
     if (!session.value && snapshot) {
       applyingLoaded = true
-      session.value = withUnsent(snapshot.session)
+      session.value = withUnsent(withCurrentFields(snapshot.session))
       jumpSetId.value = snapshot.jumpSetId
       rest.value = snapshot.rest
       applyingLoaded = false
@@ -583,6 +603,8 @@ export const useRunStore = defineStore('run', () => {
           const target = computeBackoff({
             topLoadKg: top.loadKg!, topReps: top.reps!, topRir: top.failure ? 0 : (top.rir ?? 0),
             repsMin: s.targetRepsMin, repsMax: s.targetRepsMax, equipment: exercise.equipment,
+            // A bodyweight lift's added load (or an assisted lift's help) is read with the body mass.
+            reading: { mode: exercise.loadMode, bodyMassKg: exercise.bodyMassKg },
           })
           return { ...s, targetLoadKg: target.target.loadKg }
         } catch {
@@ -646,11 +668,39 @@ export const useRunStore = defineStore('run', () => {
     const position = Math.max(...own.map((s) => s.position)) + 1
     if (Math.floor(position / BLOCK_STRIDE) !== Math.floor(model.position / BLOCK_STRIDE)) return null
     const added = write(
-      { ...model, id: newUuid(), position, kind: model.kind === 'top' ? 'backoff' : model.kind },
+      // The lifter's own extra set: the server does not plan it as a deload, so neither does the card.
+      { ...model, id: newUuid(), position, kind: model.kind === 'top' ? 'backoff' : model.kind, deload: false },
       { loadKg: null, reps: null, rir: null, failure: false, skipped: false, note: null, loggedAt: null },
     )
     jumpSetId.value = added.id
     return added
+  }
+
+  /**
+   * The set caps one more working set of this exercise would pass (none: add it quietly): the
+   * engine's caps across the session (sessionCapWarnings, over every exercise with its pattern,
+   * role and hard sets, this one counting the new set) and the cap on one exercise's own sets.
+   * Null when the engine cannot be loaded (no signal before it was cached): add without the check.
+   */
+  async function addSetCapWarnings(block: { exerciseId: number; slotId: number | null }): Promise<PlanWarning[] | null> {
+    const engine = await Promise.all([import('@shared/domain/plan-checks'), import('@shared/domain/schemes')]).catch(() => null)
+    const exercise = exerciseOf(block)
+    if (!engine || !exercise) return null
+    const [{ sessionCapWarnings }, { maxWorkingSets }] = engine
+    const hardSets = (b: RunExercise) => blockSets(b).filter(isHardSet).length + (sameBlock(b, block) ? 1 : 0)
+    const acrossSession = sessionCapWarnings(
+      exercises.value.map((e) => ({ role: e.role, exerciseName: e.name, pattern: e.pattern, workingSets: hardSets(e) })),
+    ).filter((w) => (w.code === 'PATTERN_OVER_SESSION_CAP' ? w.values.pattern === exercise.pattern : w.values.exercise === exercise.name))
+    const sets = hardSets(exercise)
+    const cap = maxWorkingSets(exercise.role)
+    if (sets <= cap) return acrossSession
+    const primary = exercise.role === 'compound_primary'
+    const own: PlanWarning = {
+      code: primary ? 'PRIMARY_COMPOUND_OVER_CAP' : 'MOVEMENT_OVER_CAP',
+      message: `${exercise.name}: ${sets} working sets, the cap is ${cap}`,
+      values: { exercise: exercise.name, sets, cap },
+    }
+    return [own, ...acrossSession]
   }
 
   function jumpTo(setId: string | null) {
@@ -687,6 +737,18 @@ export const useRunStore = defineStore('run', () => {
   async function addExercise(exerciseId: number, role: SlotRole) {
     await sendPendingFirst()
     adopt(await runApi.addExercise(session.value!.id, { exerciseId, role }))
+  }
+
+  /**
+   * A lift with no starting load: the server keeps the lifter's recent set (or the ramp's hard set)
+   * as its estimate and plans the block's open sets again, warm-ups included. Its sets are sent
+   * first, so the new plan follows what was done; the answer replaces the session's sets.
+   */
+  async function startFromRecentSet(block: { exerciseId: number; slotId: number | null }, start: StartingSet) {
+    await sendPendingFirst()
+    const answer = await runApi.startFromRecentSet(session.value!.id, { exerciseId: block.exerciseId, slotId: block.slotId, ...start })
+    jumpSetId.value = null
+    adopt(answer)
   }
 
   /** Sends every set, completes the session, then forgets the local copy. */
@@ -731,11 +793,13 @@ export const useRunStore = defineStore('run', () => {
     skipSet,
     skipExercise,
     addSet,
+    addSetCapWarnings,
     jumpTo,
     startRest,
     clearRest,
     swapExercise,
     addExercise,
+    startFromRecentSet,
     finish,
   }
 })

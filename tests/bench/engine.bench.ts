@@ -17,8 +17,8 @@ import {
   DEFAULT_SCHEMES,
   KG_COMPETITION_SET,
   LB_GYM_SET,
-  POLICIES,
   detectPlateau,
+  doubleProgressionAt,
   lbToKg,
   roundDownToLoadable,
   stepUp,
@@ -79,12 +79,14 @@ function generateLogbook(seed: number): ExerciseLog[] {
 const logbook = generateLogbook(20_261_201)
 const totalSets = logbook.reduce((n, x) => n + x.exposures.reduce((m, e) => m + e.sets.length, 0), 0)
 
+/** A next step for every working set of every exposure (the rule reads the last three exposures), and a plateau check per exercise. */
 function logbookNextSteps(): number {
   let steps = 0
   for (const ex of logbook) {
-    const policy = POLICIES.double_progression
+    const lift = { equipment: ex.equipment }
     for (let i = 0; i < ex.exposures.length; i++) {
-      steps += policy(ex.exposures[i], ex.exposures[i - 1], ex.equipment, {}).length
+      const recent = ex.exposures.slice(Math.max(0, i - 2), i + 1)
+      for (let j = 0; j < ex.exposures[i].sets.length; j++) if (doubleProgressionAt(recent, j, lift)) steps++
     }
     if (detectPlateau(ex.exposures, { role: ex.role, equipment: ex.equipment }).plateau) steps++
   }

@@ -162,7 +162,8 @@ function setBody(set: RunSet, done: boolean) {
 export const HOT_REQUESTS: HotRequest[] = [
   {
     name: "GET /api/train/today (lifter's next session)",
-    budget: 10,
+    // The plan, the history, taken steps, and the lifter's body mass, slot adjustments and starting estimates.
+    budget: 12,
     repeatable: true,
     send: (w) => request(w.app).get('/api/train/today').query({ date: w.today, tzOffset: 0 }).set(w.lifter),
   },

@@ -84,6 +84,15 @@ describe('AthleteDetailView', () => {
     view.unmount()
   })
 
+  it('links to the starting loads of the athlete\'s plan lifts', async () => {
+    const { view } = await openNoor()
+
+    expect(view.get('#athlete-start-loads-heading').text()).toBe('Starting loads')
+    await view.get('[data-testid="athlete-start-loads-link"]').trigger('click')
+    await vi.waitFor(() => expect(router.currentRoute.value.fullPath).toBe('/athletes/5/start-loads'))
+    view.unmount()
+  })
+
   it('removes the athlete only after a confirm that says they keep their data, then returns to Athletes', async () => {
     const { view, requests } = await openNoor(
       { status: 204 },

@@ -56,12 +56,41 @@ describe('InviteAcceptView', () => {
     expect(requests[1]).toMatchObject({
       method: 'POST',
       url: `/api/invites/${TOKEN}/accept`,
-      body: { name: 'Noor Vale', password: 'long enough secret' },
+      body: { name: 'Noor Vale', password: 'long enough secret', unit: 'kg' },
     })
     expect(localStorage.getItem(TOKEN_STORAGE_KEY)).toBe('tok-new')
     expect(useSessionStore().user).toEqual(lifter)
     // The next request (Train's) carries the new token.
     await vi.waitFor(() => expect(requests[2]?.headers.Authorization).toBe('Bearer tok-new'))
+    view.unmount()
+  })
+
+  it('asks a new lifter "kg or lb", kg unless they pick lb, and sends the pick', async () => {
+    const { requests } = stubFetch(
+      { status: 200, body: { invite: preview() } },
+      { status: 200, body: { token: 'tok-new', user: buildUser({ email: 'noor@example.com', unit: 'lb' }) } },
+    )
+    const view = await openInvite()
+
+    const options = view.findAll('[data-testid="accept-unit"] [role="radio"]')
+    expect(options.map((o) => [o.text(), o.attributes('aria-checked')])).toEqual([['kg', 'true'], ['lb', 'false']])
+    await view.get('[data-testid="accept-unit-lb"]').trigger('click')
+    expect(view.get('[data-testid="accept-unit-lb"]').attributes('aria-checked')).toBe('true')
+    await view.get('[data-testid="accept-password"] input').setValue('long enough secret')
+    await view.get('[data-testid="accept-invite"]').trigger('click')
+
+    // Accepted, the app goes on to Train (whose own request follows).
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('train'), { timeout: 10_000 })
+    expect(requests[1]).toMatchObject({ method: 'POST', url: `/api/invites/${TOKEN}/accept` })
+    expect(requests[1].body).toEqual({ name: 'Noor Vale', password: 'long enough secret', unit: 'lb' })
+    view.unmount()
+  })
+
+  it('does not ask an existing account for a unit (theirs stays as it is)', async () => {
+    stubFetch({ status: 200, body: { invite: preview({ existingAccount: true }) } })
+    const view = await openInvite()
+
+    expect(view.find('[data-testid="accept-unit"]').exists()).toBe(false)
     view.unmount()
   })
 

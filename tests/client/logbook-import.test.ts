@@ -49,7 +49,7 @@ const unknownZercher = preview({
 })
 const frontSquat: Exercise = {
   id: 21, name: 'Front squat', pattern: 'squat', primaryMuscles: ['quads'], secondaryMuscles: ['glutes'],
-  equipmentKind: 'barbell', loadStepKg: 2.5, defaultRestSec: 180, custom: false,
+  equipmentKind: 'barbell', loadMode: 'external', loadStepKg: 0, defaultRestSec: 180, custom: false,
 }
 
 async function pickFile(wrapper: VueWrapper, csv = CSV) {

@@ -56,7 +56,7 @@ function buildPlan(): Plan {
 const athletes = { athletes: [{ id: 21, name: 'Sam Okafor', email: 'sam@example.com', unit: 'kg', planId: null, planName: null, lastSessionAt: null, sessionsLast28Days: 0, plannedLast28Days: null, adherencePct: null, plateauLifts: [], waitingReview: 0, e1rmTrend: [] }] }
 const cableFly: Exercise = {
   id: 9, name: 'Cable chest fly', pattern: 'chest_fly', primaryMuscles: ['chest'], secondaryMuscles: [],
-  equipmentKind: 'cable', loadStepKg: 2.5, defaultRestSec: 90, custom: false,
+  equipmentKind: 'cable', loadMode: 'external', loadStepKg: 0, defaultRestSec: 90, custom: false,
 }
 
 async function mountEditor() {

@@ -51,7 +51,7 @@ const waiting: ReviewDeskRow[] = [
     commentCount: 2,
     flags: [
       { code: 'plateau', exercise: 'Barbell bench press', values: { exposures: 3 } },
-      { code: 'regression', exercise: 'Back squat', values: { dropPct: 7.9, set: 1 } },
+      { code: 'regression', exercise: 'Back squat', values: { e1rmChangePct: -7.9 } },
       { code: 'top_set_far_short', exercise: 'Bench press', values: { reps: 4, repsMin: 6 } },
       { code: 'cut_short', values: { done: 8, planned: 12 } },
       { code: 'missed_days', values: { missed: 3 } },
@@ -91,7 +91,7 @@ describe('ReviewDeskView', () => {
     const chip = (code: string) => row.get(`[data-testid="flag-${code}"]`).text()
 
     expect(chip('plateau')).toBe('Plateau: Barbell bench press (3 sessions)')
-    expect(chip('regression')).toBe('Regression: Back squat −7.9 %')
+    expect(chip('regression')).toBe('Regression: Back squat estimated 1RM −7.9 %')
     expect(chip('top_set_far_short')).toBe('Top set far short: Bench press, 4 of 6+')
     expect(chip('cut_short')).toBe('Cut short: 8 of 12 sets')
     expect(chip('missed_days')).toBe('Missed 3 training days')

@@ -53,16 +53,35 @@ const summary = {
 const detail: SessionDetail = { ...summary, note: 'Left shoulder felt tight on the last set.', sets: [warmup1, warmup2, topSet, backoff, fly1, fly2] }
 
 const reason = (message: string) => ({ code: 'X', values: {}, message })
+/** The lifter's bench press fell and has not moved for three sessions: a plateau with its options. */
 const benchReport: ExerciseReport = {
-  exerciseId: 1, slotId: 10, name: 'Bench press', workingSets: 2, volumeKg: 1505, bestE1rmKg: 112, previousBestE1rmKg: 121.6,
-  e1rmChangePct: -7.9, records: [],
-  nextStep: { action: 'hold', targetLoadKg: 100, targetReps: 6, repsMin: 6, repsMax: 9, workChangePct: 0, reason: reason('Hold.') },
-  alternative: null, plateau: null,
-  taken: { targetLoadKg: 100, targetReps: 6, status: 'taken', by: 'lifter' },
+  exerciseId: 1, slotId: 10, name: 'Bench press', loadMode: 'external', bodyMassKg: null,
+  workingSets: 2, volumeKg: 1505, bestE1rmKg: 112, previousBestE1rmKg: 121.6, e1rmChangePct: -7.894736842105263,
+  asPlanned: false, regression: true, deload: false, records: [],
+  nextStep: {
+    action: 'hold', targetLoadKg: 100, targetReps: 6, repsMin: 6, repsMax: 9, workChangePct: 50,
+    gain: { kind: 'work', pct: 50 }, reason: reason('4 reps is below the range: the same load once more, aiming for 6'),
+  },
+  alternative: null,
+  plateau: {
+    exposuresWithoutProgress: 3, window: 4,
+    options: [
+      { kind: 'rotate_version', reason: reason('No progress for 3 sessions: fresh exercises for version I of this day, the other version kept'), targetLoadKg: null, targetReps: null, sets: null, rotate: 'I' },
+      { kind: 'deload', reason: reason('A deload: about 90 % of the load and 50 % of the sets, then back to where you were'), targetLoadKg: null, targetReps: null, sets: null, rotate: null },
+    ],
+  },
+  taken: { option: 'next_step', targetLoadKg: 100, targetReps: 6, status: 'taken', by: 'lifter' },
 }
 const flyReport: ExerciseReport = {
-  ...benchReport, exerciseId: 2, slotId: 11, name: 'Cable fly', e1rmChangePct: 1.2, taken: null,
-  nextStep: { action: 'add_rep', targetLoadKg: 20, targetReps: 13, repsMin: 10, repsMax: 15, workChangePct: 8.3, reason: reason('One more rep.') },
+  ...benchReport, exerciseId: 2, slotId: 11, name: 'Cable fly', e1rmChangePct: 1.2, regression: false, asPlanned: true, plateau: null, taken: null,
+  nextStep: {
+    action: 'add_rep', targetLoadKg: 20, targetReps: 13, repsMin: 10, repsMax: 15, workChangePct: 8.3,
+    gain: { kind: 'work', pct: 8.33 }, reason: reason('One more rep.'),
+  },
+  alternative: {
+    action: 'add_load', targetLoadKg: 22.5, targetReps: 12, repsMin: 10, repsMax: 15, workChangePct: -1.2,
+    gain: { kind: 'load', pct: 12.5 }, reason: reason('Or the smallest load step for the same 12 reps'),
+  },
 }
 const report: SessionReport = { session: summary, durationSec: 3900, exercises: [benchReport, flyReport] }
 
@@ -75,7 +94,7 @@ const review: SessionReview = {
   reviewedBy: null,
   flags: [
     { code: 'top_set_far_short', exercise: 'Bench press', values: { reps: 4, repsMin: 6 } },
-    { code: 'regression', exercise: 'Bench press', values: { dropPct: 7.9, set: 1 } },
+    { code: 'regression', exercise: 'Bench press', values: { e1rmChangePct: -7.9 } },
   ],
   comments: [coachComment({ id: 1, setLogId: backoff.id, body: 'Add load on the back-off set next time' })],
 }
@@ -121,7 +140,7 @@ describe('SessionReviewView', () => {
     expect(header.get('[data-testid="review-volume"]').text()).toBe('2,145 kg')
     // The top of the rep range comes from the session's own top set.
     expect(header.get('[data-testid="flag-top_set_far_short"]').text()).toBe('Top set far short: Bench press, 4 of 6–9')
-    expect(header.get('[data-testid="flag-regression"]').text()).toBe('Regression: Bench press −7.9 %')
+    expect(header.get('[data-testid="flag-regression"]').text()).toBe('Regression: Bench press estimated 1RM −7.9 %')
   })
 
   it('folds warm-ups away until the Warm-ups toggle opens them', async () => {
@@ -215,15 +234,70 @@ describe('SessionReviewView', () => {
     expect(wrapper.find('[data-testid="mark-reviewed"]').exists()).toBe(false)
   })
 
-  it('shows the next step the lifter took, or the proposal when none was taken', async () => {
+  it('the regression flag and the exercise show the same estimated-1RM figure', async () => {
     const { wrapper } = await mountReview()
 
-    expect(exerciseCard(wrapper, 0).get('[data-testid="review-next-step"]').text()).toContain('Taken by the lifter: 100 kg × 6')
-    expect(exerciseCard(wrapper, 1).get('[data-testid="review-next-step"]').text()).toContain('Proposed, not taken yet: One more rep: 20 kg × 13')
+    const figure = exerciseCard(wrapper, 0).get('[data-testid="review-e1rm-change"]').text()
+    expect(figure).toBe('−7.9 %')
+    expect(wrapper.get('[data-testid="flag-regression"]').text()).toBe(`Regression: Bench press estimated 1RM ${figure}`)
   })
 
-  it('editing a next step posts the stepped load and reps as an edit, then says "Edited by coach"', async () => {
-    const edited = { ...report, exercises: [{ ...benchReport, taken: { targetLoadKg: 100.5, targetReps: 7, status: 'edited' as const, by: 'coach' as const } }, flyReport] }
+  it('shows what the lifter took, or that nothing is taken, and every choice with the summary\'s gain figures', async () => {
+    const { wrapper } = await mountReview()
+    const bench = exerciseCard(wrapper, 0).get('[data-testid="review-next-step"]')
+    const fly = exerciseCard(wrapper, 1).get('[data-testid="review-next-step"]')
+
+    expect(bench.get('[data-testid="next-step-standing"]').text()).toBe('Taken by the lifter:')
+    expect(bench.get('[data-testid="next-step-taken"]').text()).toBe('100 kg × 6')
+    expect(bench.get('[data-testid="coach-take-next_step"]').text()).toBe('Taken ✓')
+    expect(fly.get('[data-testid="next-step-standing"]').text()).toBe('Not taken yet')
+    expect(fly.get('[data-testid="coach-choice-next_step"] [data-testid="choice-target"]').text()).toBe('20 kg × 13')
+    expect(fly.get('[data-testid="coach-choice-next_step"] [data-testid="choice-gain"]').text()).toBe('+8.3 % work')
+    // The alternative's work falls (−1.2 %); the figure shown is its load step.
+    expect(fly.get('[data-testid="coach-choice-alternative"] [data-testid="choice-gain"]').text()).toBe('+12.5 % load')
+    expect(fly.text()).not.toContain('−1.2')
+    expect(fly.get('[data-testid="coach-take-alternative"]').text()).toBe('Take for Sam')
+  })
+
+  it('shows the plateau with its options as buttons the coach can take for the athlete', async () => {
+    const { wrapper } = await mountReview()
+    const bench = exerciseCard(wrapper, 0).get('[data-testid="review-next-step"]')
+
+    expect(bench.get('[data-testid="plateau"]').text()).toContain('No progress for 3 sessions.')
+    expect(bench.get('[data-testid="coach-choice-rotate_version"] [data-testid="choice-label"]').text()).toBe('Fresh exercises for version I')
+    expect(bench.get('[data-testid="coach-choice-deload"] [data-testid="choice-why"]').text()).toContain('about 90 % of the load')
+    expect(bench.get('[data-testid="coach-take-deload"]').text()).toBe('Take for Sam')
+  })
+
+  it('the coach takes a plateau option for the athlete: one POST with that option, then "Changed by coach"', async () => {
+    const changed = {
+      ...report,
+      exercises: [{ ...benchReport, taken: { option: 'deload' as const, targetLoadKg: null, targetReps: null, status: 'edited' as const, by: 'coach' as const } }, flyReport],
+    }
+    const { wrapper, requests } = await mountReview({ status: 200, body: { report: changed } })
+    const bench = () => exerciseCard(wrapper, 0)
+
+    await bench().get('[data-testid="coach-take-deload"]').trigger('click')
+    await flushPromises()
+
+    expect(requests[4]).toMatchObject({ method: 'POST', url: '/api/sessions/41/next-steps' })
+    expect(requests[4].body).toEqual({ steps: [{ exerciseId: 1, slotId: 10, option: 'deload' }] })
+    expect(bench().get('[data-testid="edited-by-coach"]').text()).toBe('Changed by coach:')
+    expect(bench().get('[data-testid="next-step-taken"]').text()).toBe('deload next time')
+    expect(bench().get('[data-testid="coach-take-deload"]').text()).toBe('Taken ✓')
+  })
+
+  it('the coach takes the alternative step for the athlete with its target', async () => {
+    const { wrapper, requests } = await mountReview({ status: 200, body: { report } })
+
+    await exerciseCard(wrapper, 1).get('[data-testid="coach-take-alternative"]').trigger('click')
+    await flushPromises()
+
+    expect(requests[4].body).toEqual({ steps: [{ exerciseId: 2, slotId: 11, option: 'alternative', targetLoadKg: 22.5, targetReps: 12 }] })
+  })
+
+  it('editing a next step posts the stepped load and reps as an edit, then says "Changed by coach"', async () => {
+    const edited = { ...report, exercises: [{ ...benchReport, taken: { option: 'edited' as const, targetLoadKg: 100.5, targetReps: 7, status: 'edited' as const, by: 'coach' as const } }, flyReport] }
     const { wrapper, requests } = await mountReview({ status: 200, body: { report: edited } })
     const bench = () => exerciseCard(wrapper, 0)
 
@@ -234,9 +308,9 @@ describe('SessionReviewView', () => {
     await flushPromises()
 
     expect(requests[4]).toMatchObject({ method: 'POST', url: '/api/sessions/41/next-steps' })
-    expect(requests[4].body).toEqual({ steps: [{ exerciseId: 1, slotId: 10, targetLoadKg: 100.5, targetReps: 7, edited: true }] })
-    expect(bench().get('[data-testid="edited-by-coach"]').text()).toBe('Edited by coach:')
-    expect(bench().get('[data-testid="review-next-step"]').text()).toContain('100.5 kg × 7')
+    expect(requests[4].body).toEqual({ steps: [{ exerciseId: 1, slotId: 10, option: 'edited', targetLoadKg: 100.5, targetReps: 7 }] })
+    expect(bench().get('[data-testid="edited-by-coach"]').text()).toBe('Changed by coach:')
+    expect(bench().get('[data-testid="next-step-taken"]').text()).toBe('100.5 kg × 7')
     expect(bench().find('[data-testid="save-next-step"]').exists()).toBe(false)
   })
 })

@@ -1,14 +1,15 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
 import { openDB } from 'idb'
-import { logSetSchema } from '@shared/schemas/run.schema'
+import { logSetSchema, startFromRecentSetSchema, type RunExercise, type RunSession, type RunSet } from '@shared/schemas/run.schema'
 import { backoffTarget } from '@shared/domain/schemes'
 import { KG_COMPETITION_SET } from '@shared/domain/equipment'
+import { KG_GYM } from '@shared/domain/gym'
 import { setAuthToken } from '@/api/client'
 import { toLogBody, useRunStore } from '@/stores/run'
-import { DEVICE_DB_NAME, type OutboxEntry, type RunnerSnapshot } from '@/offline/device-store'
+import { DEVICE_DB_NAME, openDeviceStore, type OutboxEntry, type RunnerSnapshot } from '@/offline/device-store'
 import { LEGACY_RUN_KEYS } from '@/offline/legacy-run-storage'
-import { buildRunSession } from './helpers/run-fixtures'
+import { benchPress, buildRunSession, buildSet, buildUnplannedSession, cableFly, plannedFromStart } from './helpers/run-fixtures'
 import { stubFetch } from './helpers/fetch-stub'
 
 const NOW = new Date('2026-12-01T18:00:00.000Z')
@@ -634,5 +635,172 @@ describe('run store with no IndexedDB (some private modes)', () => {
     expect(run.storageWarning).toMatch(/not keeping sets on the device/)
     expect(requests).toHaveLength(1)
     expect(run.pendingCount).toBe(0)
+  })
+})
+
+describe('run store: a lift with no starting load', () => {
+  it('POSTs the recent set as the start and takes the answer: the block planned again, from its first warm-up', async () => {
+    const session = buildUnplannedSession()
+    const answer = plannedFromStart(session)
+    const { requests } = stubFetch(okReply({ session: answer }))
+    const run = useRunStore()
+    run.adopt(session)
+    expect(run.currentSet!.targetLoadKg).toBeNull()
+
+    await run.startFromRecentSet(run.currentSet!, { loadKg: 80, reps: 5, rir: 1, source: 'recent_set' })
+
+    expect(requests).toEqual([
+      expect.objectContaining({
+        method: 'POST',
+        url: '/api/sessions/41/start-estimate',
+        body: { exerciseId: 1, slotId: 10, loadKg: 80, reps: 5, rir: 1, source: 'recent_set' },
+      }),
+    ])
+    expect(startFromRecentSetSchema.safeParse(requests[0].body).success).toBe(true)
+    expect(run.sets.map((s) => s.id)).toEqual(answer.sets.map((s) => s.id))
+    expect(run.currentSet).toMatchObject({ kind: 'warmup', targetLoadKg: 25 })
+  })
+
+  it('sends the sets waiting in the outbox before the start, so the plan follows what was done', async () => {
+    const session = buildUnplannedSession()
+    const { requests } = stubFetch(okReply(), okReply({ session: plannedFromStart(session) }))
+    const run = useRunStore()
+    run.adopt(session)
+    const fly = run.sets.find((s) => s.exerciseId === 2)!
+    run.logSet(fly.id, { loadKg: 20, reps: 12, rir: 2, failure: false })
+
+    await run.startFromRecentSet({ exerciseId: 1, slotId: 10 }, { loadKg: 60, reps: 5, rir: 2, source: 'ramp' })
+
+    expect(requests.map((r) => `${r.method} ${r.url}`)).toEqual([`PUT /api/sessions/41/sets/${fly.id}`, 'POST /api/sessions/41/start-estimate'])
+    expect(requests[1].body).toEqual({ exerciseId: 1, slotId: 10, loadKg: 60, reps: 5, rir: 2, source: 'ramp' })
+  })
+
+  it('with no signal rejects with status 0 and leaves the session as it was', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const session = buildUnplannedSession()
+    const run = useRunStore()
+    run.adopt(session)
+
+    await expect(run.startFromRecentSet({ exerciseId: 1, slotId: 10 }, { loadKg: 80, reps: 5, rir: 0, source: 'recent_set' })).rejects.toMatchObject({ status: 0 })
+    expect(run.sets.map((s) => s.id)).toEqual([...session.sets].sort((a, b) => a.position - b.position).map((s) => s.id))
+  })
+})
+
+describe('run store: caps when adding a set', () => {
+  // The caps (3 working sets on a main lift, 4 hard sets of one movement pattern in a session) are
+  // common practice, no published source (shared/domain/schemes.ts, progression.ts).
+  const legPress: RunExercise = {
+    ...cableFly, exerciseId: 3, slotId: 12, name: 'Leg press', pattern: 'squat', role: 'accessory', equipment: KG_GYM.sled, equipmentKind: 'sled',
+  }
+  const squat: RunExercise = { ...benchPress, exerciseId: 4, slotId: 13, name: 'Back squat', pattern: 'squat' }
+  function legsSession() {
+    const session = buildRunSession()
+    const block = (e: RunExercise, start: number, kinds: RunSet['kind'][]) =>
+      kinds.map((kind, i) => buildSet({ exerciseId: e.exerciseId, slotId: e.slotId, position: start + i, kind }))
+    session.exercises = [squat, legPress]
+    session.sets = [...block(squat, 0, ['warmup', 'top', 'backoff']), ...block(legPress, 100, ['straight', 'straight'])]
+    return session
+  }
+
+  it('names the pattern cap a fifth squat-pattern set would pass, counting every exercise of the pattern and not warm-ups', async () => {
+    stubFetch()
+    const run = useRunStore()
+    run.adopt(legsSession())
+
+    const warnings = await run.addSetCapWarnings({ exerciseId: 3, slotId: 12 })
+
+    // Back squat 2 + leg press 2 + the new one = 5 hard sets of the squat pattern, over the cap of 4.
+    expect(warnings).toEqual([expect.objectContaining({ code: 'PATTERN_OVER_SESSION_CAP', values: expect.objectContaining({ pattern: 'squat', sets: 5, cap: 4 }) })])
+  })
+
+  it('leaves skipped sets out, and says nothing while the session stays within the caps', async () => {
+    stubFetch()
+    const run = useRunStore()
+    const session = legsSession()
+    session.sets = session.sets.map((s) => (s.kind === 'backoff' ? { ...s, skipped: true, loggedAt: NOW.toISOString() } : s))
+    run.adopt(session)
+
+    expect(await run.addSetCapWarnings({ exerciseId: 3, slotId: 12 })).toEqual([])
+  })
+
+  it("names a main lift's own cap: a fourth working set of a primary compound passes 3", async () => {
+    stubFetch()
+    const run = useRunStore()
+    const session = buildRunSession()
+    session.sets.push(buildSet({ exerciseId: 1, slotId: 10, position: 4, kind: 'backoff' }))
+    run.adopt(session)
+
+    const warnings = await run.addSetCapWarnings({ exerciseId: 1, slotId: 10 })
+
+    expect(warnings).toEqual([expect.objectContaining({ code: 'PRIMARY_COMPOUND_OVER_CAP', values: { exercise: 'Bench press', sets: 4, cap: 3 } })])
+    expect(await run.addSetCapWarnings({ exerciseId: 2, slotId: 11 })).toEqual([]) // cable fly: 3 of 4
+  })
+
+  it('adds a set of a deload block as an ordinary set (the server does not plan it as a deload)', () => {
+    stubFetch(okReply())
+    const run = useRunStore()
+    const session = buildRunSession()
+    session.sets = session.sets.map((s) => (s.exerciseId === 2 ? { ...s, deload: true, targetRir: 3 } : s))
+    run.adopt(session)
+
+    const added = run.addSet({ exerciseId: 2, slotId: 11 })!
+
+    expect(added.deload).toBe(false)
+  })
+})
+
+describe('run store: bodyweight lifts and copies kept by older versions', () => {
+  it("previews a chin-up's back-off from the load moved: body mass plus the added load", async () => {
+    stubFetch()
+    const chinUp: RunExercise = {
+      ...benchPress, name: 'Chin-up', pattern: 'vertical_pull', equipment: KG_GYM.bodyweight, equipmentKind: 'bodyweight', loadMode: 'bodyweight', bodyMassKg: 80,
+    }
+    const session = buildRunSession()
+    session.exercises = [chinUp, cableFly]
+    const run = useRunStore()
+    run.adopt(session)
+    const top = run.sets.find((s) => s.kind === 'top')!
+    const backoff = run.sets.find((s) => s.kind === 'backoff')!
+
+    run.logSet(top.id, { loadKg: 10, reps: 8, rir: null, failure: true })
+
+    const reading = { mode: 'bodyweight' as const, bodyMassKg: 80 }
+    const expected = backoffTarget({ topLoadKg: 10, topReps: 8, topRir: 0, repsMin: 9, repsMax: 12, equipment: KG_GYM.bodyweight, reading })
+    // 90 kg moved x 8 reps: Epley 90 x (1 + 8/30) = 114 kg; 12 reps at it: 114 / 1.4 = 81.4 kg moved, 1.4 kg added -> 1.25 kg on the belt.
+    expect(expected.target.loadKg).toBe(1.25)
+    await vi.waitFor(() => expect(run.sets.find((s) => s.id === backoff.id)!.targetLoadKg).toBe(1.25))
+  })
+
+  it('reads a session kept on the phone before deloads and load modes existed as no deload, loads as logged', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const old = buildRunSession() as unknown as { sets: Array<Record<string, unknown>>; exercises: Array<Record<string, unknown>> }
+    for (const set of old.sets) delete set.deload
+    for (const exercise of old.exercises) {
+      delete exercise.loadMode
+      delete exercise.bodyMassKg
+    }
+    const device = await openDeviceStore()
+    await device.write({ snapshot: { id: 41, session: old as unknown as RunSession, jumpSetId: null, rest: null, savedAt: NOW.toISOString() } })
+    device.close()
+
+    const run = useRunStore()
+    await run.whenReady()
+
+    expect(run.sets.every((s) => s.deload === false)).toBe(true)
+    expect(run.exercises.map((e) => [e.loadMode, e.bodyMassKg])).toEqual([['external', null], ['external', null]])
+  })
+
+  it('keeps a deload set a deload when its unsent log is laid over the server copy', async () => {
+    vi.stubGlobal('fetch', noSignal())
+    const session = buildRunSession()
+    session.sets = session.sets.map((s) => (s.kind === 'top' ? { ...s, deload: true, toFailure: false, targetRir: 3 } : s))
+    const run = useRunStore()
+    run.adopt(session)
+    const top = run.sets.find((s) => s.kind === 'top')!
+    run.logSet(top.id, { loadKg: 90, reps: 8, rir: 3, failure: false })
+
+    run.adopt(session) // the server's copy again (a resume), the log still unsent
+
+    expect(run.sets.find((s) => s.id === top.id)).toMatchObject({ deload: true, reps: 8 })
   })
 })

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { mount } from '@vue/test-utils'
 import { KG_COMPETITION_SET, type Equipment } from '@shared/domain/equipment'
+import { KG_GYM } from '@shared/domain/gym'
+import type { LoadMode } from '@shared/domain/lift-progress'
 import SetRepsStepper from '@/components/session/SetRepsStepper.vue'
 import SetLoadStepper from '@/components/session/SetLoadStepper.vue'
 
@@ -11,9 +13,9 @@ function mountReps(modelValue: number, props: { min?: number; max?: number } = {
   return wrapper
 }
 
-function mountLoad(modelValue: number | null, equipment: Equipment, unit: 'kg' | 'lb' = 'kg') {
+function mountLoad(modelValue: number | null, equipment: Equipment, unit: 'kg' | 'lb' = 'kg', mode: LoadMode = 'external') {
   const wrapper = mount(SetLoadStepper, {
-    props: { modelValue, equipment, unit, 'onUpdate:modelValue': (v: number | null) => wrapper.setProps({ modelValue: v }) },
+    props: { modelValue, equipment, unit, mode, 'onUpdate:modelValue': (v: number | null) => wrapper.setProps({ modelValue: v }) },
   })
   return wrapper
 }
@@ -74,5 +76,30 @@ describe('SetLoadStepper', () => {
     await stepper.get('[data-testid="load-plus"]').trigger('click')
 
     expect(stepper.get('[data-testid="load-value"]').text()).toBe('105 lb')
+  })
+
+  it('steps the added load of a bodyweight lift and reads it "Body + 10 kg", "Body weight" with nothing added', async () => {
+    // KG_GYM's dip-belt plates: 20, 10, 5, 2.5 and two 1.25 kg; the smallest added loads are 0, 1.25, 2.5 (arithmetic).
+    const stepper = mountLoad(0, KG_GYM.bodyweight, 'kg', 'bodyweight')
+    expect(stepper.get('[data-testid="load-value"]').text()).toBe('Body weight')
+    expect(stepper.get('[data-testid="load-minus"]').attributes()).toHaveProperty('disabled')
+    expect(stepper.get('[data-testid="load-plus"]').attributes('aria-label')).toBe('More added load')
+
+    await stepper.get('[data-testid="load-plus"]').trigger('click')
+    await stepper.get('[data-testid="load-plus"]').trigger('click')
+
+    expect(stepper.emitted('update:modelValue')).toEqual([[1.25], [2.5]])
+    expect(stepper.get('[data-testid="load-value"]').text()).toBe('Body + 2.5 kg')
+  })
+
+  it('reads an assisted lift\'s load as the help: "Help 30 kg", plus gives more help', async () => {
+    const assistStack: Equipment = { kind: 'stack', unit: 'kg', steps: [0, 10, 20, 30, 40], addOns: [] }
+    const stepper = mountLoad(30, assistStack, 'kg', 'assisted')
+    expect(stepper.get('[data-testid="load-value"]').text()).toBe('Help 30 kg')
+    expect(stepper.get('[data-testid="load-plus"]').attributes('aria-label')).toBe('More help')
+
+    await stepper.get('[data-testid="load-plus"]').trigger('click')
+
+    expect(stepper.get('[data-testid="load-value"]').text()).toBe('Help 40 kg')
   })
 })

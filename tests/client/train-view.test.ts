@@ -108,6 +108,34 @@ describe('TrainView', () => {
     expect(lines).toEqual(['Top set 80 kg × 6–9 · aim for 8', 'Back-off set 70 kg × 9–12', 'Set 20 kg × 10–15'])
   })
 
+  it('previews a lift with no starting load by its reps, and says its load is set on the first set', async () => {
+    const firstTime: Today = {
+      ...pushDay,
+      day: {
+        ...pushDay.day!,
+        slots: [
+          {
+            ...pushDay.day!.slots[0],
+            targets: [
+              { kind: 'top', targetLoadKg: null, repsMin: 6, repsMax: 9, targetReps: 7 },
+              { kind: 'backoff', targetLoadKg: null, repsMin: 9, repsMax: 12, targetReps: 9 },
+            ],
+          },
+          pushDay.day!.slots[1],
+        ],
+      },
+    }
+    stubFetch({ status: 200, body: firstTime })
+    const wrapper = await mountTrain()
+
+    expect(wrapper.findAll('[data-testid="slot-target"]').map((l) => l.text())).toEqual([
+      'Top set 6–9 reps · aim for 7',
+      'Back-off set 9–12 reps · aim for 9',
+      'Set 20 kg × 10–15',
+    ])
+    expect(wrapper.findAll('[data-testid="slot-start-load"]').map((l) => l.text())).toEqual(['Starting load: set on the first set'])
+  })
+
   it('shows the targets in pounds for a lifter who uses pounds', async () => {
     useSessionStore().user = buildUser({ unit: 'lb' })
     stubFetch({ status: 200, body: pushDay })

@@ -97,8 +97,8 @@ describe('training with no signal', () => {
 
     while (logged < SETS) {
       if (!(await page.getByTestId('set-card').isVisible()) && !(await page.getByTestId('finish-session').isVisible())) {
-        // On Train: start (or resume) a session.
-        await page.getByRole('button', { name: /Start session|Resume session/ }).tap()
+        // On Train: start (or resume) a session; on a rest day, train the next day anyway.
+        await page.getByRole('button', { name: /Start session|Resume session|Train anyway/ }).first().tap()
         await page.getByTestId('set-card').waitFor()
         sessionIds.push((await api<{ session: { id: number } }>('/sessions/current')).session.id)
       }

@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { RunSession, SessionReport } from '../../shared/schemas/run.schema'
 import type { SessionDetail } from '../../shared/schemas/session.schema'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts'
-import { launchChromium, phoneContext } from '../helpers/browser'
+import { launchChromium, phoneContext, signInThroughForm } from '../helpers/browser'
 import { startBuiltServer } from '../helpers/server-process'
 
 const VIEWPORT_HEIGHT = 844
@@ -77,10 +77,11 @@ describe('a whole demo session on a 390x844 phone, one thumb', () => {
     const warmups = started.sets.filter((s) => s.exerciseId === firstExercise.exerciseId && s.kind === 'warmup')
     expect(warmups.length).toBeGreaterThan(0)
 
-    // Warm-up ramp: tick each off with one tap; plates per side are drawn for the barbell.
+    // Warm-up ramp: tick each off with one tap; plates per side are drawn for a bar (or sled), none for a machine.
+    const onPlates = firstExercise.equipment.kind === 'barbell' ? 1 : 0
     for (let i = 0; i < warmups.length; i++) {
       expect(await setLabel()).toMatch(new RegExp(`Warm-up ${i + 1} of ${warmups.length}`))
-      expect(await page.getByTestId('set-plates').count()).toBe(1)
+      expect(await page.getByTestId('set-plates').count()).toBe(onPlates)
       if (i === 0) await page.screenshot({ path: join(artifacts, 'set-card-warmup.png') })
       await tapInThumbZone(page.getByTestId('as-planned'))
     }
@@ -150,3 +151,61 @@ describe('a whole demo session on a 390x844 phone, one thumb', () => {
     expect(report.exercises[0].taken!.targetLoadKg).toBe(report.exercises[0].nextStep!.targetLoadKg)
   })
 })
+
+describe('a lift with no history on a 390x844 phone: the set card asks for a start', () => {
+  it('finds the load with a short ramp from the empty bar and plans the sets from its hard set', async () => {
+    const fresh = await phoneContext(browser)
+    const phone = await fresh.newPage()
+    const email = 'first.lift@example.com'
+    const registered = await fetch(server.baseUrl + '/api/auth/register', {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ name: 'Rowan Pell', email, password: 'first-lift-password', role: 'lifter', unit: 'kg' }),
+    })
+    expect(registered.status).toBe(201)
+    await signInThroughForm(phone, server.baseUrl, email, 'first-lift-password')
+    await phone.getByRole('heading', { name: 'Train', exact: true }).waitFor()
+    const token = await phone.evaluate(() => localStorage.getItem('chalkline.token'))
+    const call = async <T>(method: string, path: string, body?: unknown): Promise<T> => {
+      const res = await fetch(server.baseUrl + '/api' + path, {
+        method,
+        headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      })
+      expect(res.ok, `${method} ${path} answered ${res.status}`).toBe(true)
+      return (await res.json()) as T
+    }
+    const { session: empty } = await call<{ session: RunSession }>('POST', '/sessions?date=2026-12-01&tzOffset=0', { empty: true })
+    const squat = (await call<{ exercises: Array<{ id: number; name: string }> }>('GET', '/exercises?q=Back%20squat')).exercises.find((e) => e.name === 'Back squat')!
+    const { session: planned } = await call<{ session: RunSession }>('POST', `/sessions/${empty.id}/exercises`, { exerciseId: squat.id, role: 'compound_primary' })
+    expect(planned.sets.filter((s) => s.kind !== 'warmup').map((s) => s.targetLoadKg)).toEqual([null, null])
+
+    await phone.goto(server.baseUrl + '/train/session')
+    const prompt = phone.getByTestId('start-prompt')
+    await prompt.waitFor()
+    expect(await prompt.innerText()).toMatch(/No starting load for Back squat yet/)
+    const inThumbZone = async (id: string) => {
+      const box = await phone.getByTestId(id).boundingBox()
+      expect(box!.y, `${id} starts inside the bottom 40 %`).toBeGreaterThanOrEqual(THUMB_ZONE_TOP)
+      expect(box!.height, `${id} is at least 56 px tall`).toBeGreaterThanOrEqual(56)
+      await phone.getByTestId(id).tap()
+    }
+
+    // The ramp: the empty bar (20 kg in the default kilogram gym), then about 20 % a set.
+    await inThumbZone('find-load')
+    expect(await phone.getByTestId('target-load').innerText()).toMatch(/^20\s*kg$/)
+    expect(await phone.getByTestId('ramp-caution').innerText()).toMatch(/stops well short of failure/)
+    await inThumbZone('ramp-heavier') // 22.5 kg
+    await inThumbZone('ramp-heavier') // 25 kg
+    await inThumbZone('ramp-hard')
+    await prompt.waitFor({ state: 'detached' })
+
+    // The server kept the ramp's hard set as the start and planned the squat's sets from it.
+    const { session } = await call<{ session: RunSession }>('GET', '/sessions/current')
+    const working = session.sets.filter((s) => s.kind !== 'warmup')
+    expect(working.every((s) => s.targetLoadKg !== null && s.targetLoadKg > 0)).toBe(true)
+    expect(await phone.getByTestId('as-planned').isVisible()).toBe(true)
+    await fresh.close()
+  })
+})
+

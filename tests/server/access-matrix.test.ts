@@ -4,6 +4,7 @@ import { createApp } from '../../server/app'
 import type { AppConfig } from '../../server/config'
 import { SessionModel } from '../../server/db'
 import { apiRouter } from '../../server/routes'
+import { KG_GYM } from '../../shared/domain/gym'
 import type { Plan, RotationProposal } from '../../shared/schemas/plan.schema'
 import type { SessionReport } from '../../shared/schemas/run.schema'
 import {
@@ -197,6 +198,12 @@ const TABLE: Variant[] = [
     route: 'DELETE /me', label: 'oneself', allow: SIGNED_IN, ok: 204, url: () => '/api/me', last: true,
     body: (w, actor) => ({ password: passwordOf(w, actor) }),
   },
+  { route: 'GET /me/gym', label: 'own gym', allow: LIFTERS, url: () => '/api/me/gym', check: (_w, _a, res) => expect(res.body.gym.barbell.kind).toBe('barbell') },
+  {
+    // The preset again, so the rest of the matrix plans with the same gym.
+    route: 'PUT /me/gym', label: 'own gym', allow: LIFTERS, url: () => '/api/me/gym', body: () => KG_GYM,
+    check: (_w, _a, res) => expect(res.body.savedAt).toEqual(expect.any(String)),
+  },
   { route: 'GET /exercises', label: 'own library', allow: SIGNED_IN, url: () => '/api/exercises' },
   { route: 'GET /exercises', label: "searching for coach A's exercise by name", allow: SIGNED_IN, url: (w) => `/api/exercises?q=${encodeURIComponent(w.custom.name)}` },
   { route: 'GET /train/today', label: 'own plan', allow: LIFTERS, url: () => '/api/train/today' },
@@ -275,6 +282,33 @@ const TABLE: Variant[] = [
     // upload.service: only the lifter and their coach watch a video; admins manage accounts, not form checks.
     url: (w) => `/api/uploads/${w.videoId}/url`,
   },
+  // gym.service: only the athlete's coach edits their gym (the lifter uses /me/gym; admins manage accounts).
+  {
+    route: 'GET /athletes/:id/gym', label: "lifter A's gym", allow: ['coachA'], url: (w) => `/api/athletes/${A(w).id}/gym`,
+    check: (_w, _a, res) => expect(res.body.gym.barbell.kind).toBe('barbell'),
+  },
+  {
+    route: 'PUT /athletes/:id/gym', label: "lifter A's gym", allow: ['coachA'], url: (w) => `/api/athletes/${A(w).id}/gym`,
+    body: () => KG_GYM,
+    check: async (w, _a, res) => {
+      // Saved for lifter A: lifter A reads the same save.
+      expect((await w.ok<{ savedAt: string }>('lifterA', 'get', '/api/me/gym', 200)).savedAt).toBe(res.body.savedAt)
+    },
+  },
+  // start-estimate.service: only the athlete's coach (the lifter enters a recent set on the set card).
+  {
+    route: 'GET /athletes/:id/start-estimates', label: "lifter A's starting estimates", allow: ['coachA'], url: (w) => `/api/athletes/${A(w).id}/start-estimates`,
+    check: (_w, _a, res) => expect(res.body.estimates.length).toBeGreaterThan(0),
+  },
+  {
+    route: 'PUT /athletes/:id/start-estimates', label: "lifter A's starting estimates", allow: ['coachA'], url: (w) => `/api/athletes/${A(w).id}/start-estimates`,
+    prepare: async (w) => {
+      const { estimates } = await w.ok<{ estimates: Array<{ exerciseId: number }> }>('coachA', 'get', `/api/athletes/${A(w).id}/start-estimates`, 200)
+      return { exerciseId: estimates[0].exerciseId }
+    },
+    body: (_w, _a, c) => ({ estimates: [{ exerciseId: c.exerciseId, loadKg: 50, reps: 8 }] }),
+    check: (_w, _a, res, c) => expect(res.body.estimates.find((e: { exerciseId: number }) => e.exerciseId === c.exerciseId).setBy).toBe('coach'),
+  },
   {
     route: 'PATCH /admin/users/:id', label: "lifter A's account", allow: ['admin'], url: (w) => `/api/admin/users/${A(w).id}`,
     body: () => ({ active: true }),
@@ -325,6 +359,17 @@ const TABLE: Variant[] = [
     url: (_w, c) => `/api/uploads/${c.videoId}`,
   },
   {
+    route: 'POST /sessions/:id/start-estimate', label: "lifter A's session in progress", allow: ['lifterA'],
+    prepare: async (w) => {
+      const session = await w.running()
+      const set = session.sets.find((s) => s.kind !== 'warmup')!
+      return { id: session.id, exerciseId: set.exerciseId, slotId: set.slotId }
+    },
+    url: (_w, c) => `/api/sessions/${c.id}/start-estimate`,
+    body: (_w, _a, c) => ({ exerciseId: c.exerciseId, slotId: c.slotId, loadKg: 40, reps: 8 }),
+    check: (_w, _a, res) => expect(res.body.session.sets.length).toBeGreaterThan(0),
+  },
+  {
     route: 'POST /sessions/:id/complete', label: "lifter A's session in progress", allow: ['lifterA'],
     prepare: async (w) => ({ id: (await w.running()).id }),
     url: (_w, c) => `/api/sessions/${c.id}/complete`,
@@ -336,7 +381,7 @@ const TABLE: Variant[] = [
       const report = (await w.ok<{ report: SessionReport }>('lifterA', 'get', `/api/sessions/${w.finishedId}/report`, 200)).report
       const withStep = report.exercises.find((e) => e.nextStep)
       if (!withStep?.nextStep) throw new Error('the finished session has no next step')
-      return { steps: [{ exerciseId: withStep.exerciseId, slotId: withStep.slotId, targetLoadKg: withStep.nextStep.targetLoadKg, targetReps: withStep.nextStep.targetReps, edited: false }] }
+      return { steps: [{ exerciseId: withStep.exerciseId, slotId: withStep.slotId, option: 'next_step', targetLoadKg: withStep.nextStep.targetLoadKg, targetReps: withStep.nextStep.targetReps }] }
     },
     url: (w) => `/api/sessions/${w.finishedId}/next-steps`,
     body: (_w, _a, c) => ({ steps: c.steps }),

@@ -37,7 +37,7 @@ describe('the demo club', () => {
     expect(await ExerciseModel.count()).toBeGreaterThanOrEqual(55)
   })
 
-  it('holds six weeks of completed sessions for each lifter, with loads the gym can make', async () => {
+  it('holds ten weeks of completed sessions for each lifter, with loads the gym can make', async () => {
     const lifters = await UserModel.findAll({ where: { role: 'lifter' } })
     for (const lifter of lifters) {
       const sessions = await SessionModel.findAll({ where: { athleteId: lifter.id }, order: [['completedAt', 'ASC']] })
@@ -59,7 +59,7 @@ describe('the demo club', () => {
     }
   })
 
-  it("moves a lift on over the six weeks (the kg lifter's squat top set gets heavier or longer)", async () => {
+  it("moves a lift on over the ten weeks (the kg lifter's squat top set gets heavier or longer)", async () => {
     const ana = await UserModel.findOne({ where: { email: DEMO_ACCOUNTS.lifterKg.email } })
     const squat = await ExerciseModel.findOne({ where: { name: 'Back squat' } })
     const tops = await SetLogModel.findAll({
@@ -75,7 +75,7 @@ describe('the demo club', () => {
   it('stores the records each session set, shown in the logbook list', async () => {
     const res = await request(t.app).get('/api/sessions').query({ limit: 200 }).set(await signIn(DEMO_ACCOUNTS.lifterKg.email))
     const records = res.body.sessions.map((s: { records: number }) => s.records)
-    // The lifter progresses over six weeks, so later sessions beat earlier numbers; the first cannot.
+    // The lifter progresses over ten weeks, so later sessions beat earlier numbers; the first cannot.
     expect(records.some((n: number) => n > 0)).toBe(true)
     expect(records.at(-1)).toBe(0)
   })

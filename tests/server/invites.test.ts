@@ -53,6 +53,39 @@ describe('invitations', () => {
     expect(reused.body.error.code).toBe('invite_used')
   })
 
+  it('stores the unit a new lifter picks (kg when none is sent); their gym then starts from that preset', async () => {
+    for (const [name, email, body, unit] of [
+      ['Ivo Brandt', 'ivo@example.test', { password: 'a-new-long-password', unit: 'lb' }, 'lb'],
+      ['Kit Moreau', 'kit@example.test', { password: 'a-new-long-password' }, 'kg'],
+    ] as const) {
+      await request(t.app).post('/api/invites').set(coach.auth).send({ name, email })
+      const { token } = await linkSentTo(email, 'invite')
+      const accepted = await request(t.app).post(`/api/invites/${token}/accept`).send(body)
+      expect(accepted.status).toBe(200)
+      expect(accepted.body.user.unit).toBe(unit)
+      expect((await UserModel.findOne({ where: { email } }))!.unit).toBe(unit)
+      const gym = await request(t.app).get('/api/me/gym').set('Authorization', `Bearer ${accepted.body.token}`)
+      expect(gym.body.gym.barbell).toMatchObject({ unit, barMass: unit === 'lb' ? 45 : 20 })
+    }
+  })
+
+  it('refuses a unit other than kg or lb and makes no account', async () => {
+    await request(t.app).post('/api/invites').set(coach.auth).send({ name: 'Lou Tan', email: 'lou@example.test' })
+    const { token } = await linkSentTo('lou@example.test', 'invite')
+    const res = await request(t.app).post(`/api/invites/${token}/accept`).send({ password: 'a-new-long-password', unit: 'stone' })
+    expect(res.status).toBe(400)
+    expect(res.body.error.issues.map((i: { path: string }) => i.path)).toEqual(['unit'])
+    expect(await UserModel.count({ where: { email: 'lou@example.test' } })).toBe(0)
+  })
+
+  it('leaves an existing lifter\'s unit as it is whatever the body says', async () => {
+    const lifter = await t.userWithToken('lifter', 'keeps-unit')
+    await request(t.app).post('/api/invites').set(coach.auth).send({ name: 'Keeps', email: lifter.user.email })
+    const { token } = await linkSentTo(lifter.user.email, 'invite')
+    expect((await request(t.app).post(`/api/invites/${token}/accept`).set(lifter.auth).send({ unit: 'lb' })).status).toBe(200)
+    expect((await UserModel.findByPk(lifter.user.id))!.unit).toBe('kg')
+  })
+
   it('refuses an expired link', async () => {
     await request(t.app).post('/api/invites').set(coach.auth).send({ name: 'Eli Park', email: 'eli@example.test' })
     const { token } = await linkSentTo('eli@example.test', 'invite')

@@ -196,6 +196,18 @@ describe('POST /api/exercises', () => {
     expect((await request(t.app).post('/api/exercises').set(athlete.auth).send({ ...body, name: 'Other' })).status).toBe(403)
   })
 
+  it('reads a bodyweight exercise as body mass plus added load, and keeps no load step of its own unless given', async () => {
+    const res = await request(t.app).post('/api/exercises').set(coach.auth).send({
+      name: 'Ring dip', pattern: 'horizontal_push', primaryMuscles: ['chest', 'triceps'], secondaryMuscles: [], equipmentKind: 'bodyweight', defaultRestSec: 120,
+    })
+    expect(res.status).toBe(201)
+    expect(res.body.exercise).toMatchObject({ loadMode: 'bodyweight', loadStepKg: 0 })
+    const assisted = await request(t.app).post('/api/exercises').set(coach.auth).send({
+      name: 'Band-assisted chin-up', pattern: 'vertical_pull', primaryMuscles: ['lats'], secondaryMuscles: [], equipmentKind: 'machine', loadMode: 'assisted', loadStepKg: 5, defaultRestSec: 120,
+    })
+    expect(assisted.body.exercise).toMatchObject({ loadMode: 'assisted', loadStepKg: 5 })
+  })
+
   it('filters the library by pattern, muscle and equipment', async () => {
     const res = await request(t.app).get('/api/exercises').query({ pattern: 'horizontal_push', equipment: 'barbell', muscle: 'triceps' }).set(coach.auth)
     const names = res.body.exercises.map((e: { name: string }) => e.name)

@@ -260,6 +260,24 @@ describe('empty sessions', () => {
   })
 })
 
+describe('how each exercise is loaded', () => {
+  it('names the library equipment of each exercise, so a sled can be told from a bar the engine loads alike', async () => {
+    const res = await start('chloe', { empty: true })
+    const sessionId = res.body.session.id
+    const find = async (q: string) => (await request(t.app).get('/api/exercises').query({ q }).set(auth.chloe)).body.exercises[0]
+    for (const name of ['Leg press', 'Back squat']) {
+      const exercise = await find(name)
+      const added = await request(t.app).post(`/api/sessions/${sessionId}/exercises`).set(auth.chloe).send({ exerciseId: exercise.id, role: 'accessory' })
+      expect(added.status).toBe(200)
+    }
+
+    const { body } = await request(t.app).get(`/api/sessions/${sessionId}/run`).set(auth.chloe)
+    const byName = Object.fromEntries(body.session.exercises.map((e: RunSession['exercises'][number]) => [e.name, e]))
+    expect(byName['Leg press']).toMatchObject({ equipmentKind: 'sled', equipment: { kind: 'barbell' } })
+    expect(byName['Back squat']).toMatchObject({ equipmentKind: 'barbell', equipment: { kind: 'barbell' } })
+  })
+})
+
 describe('long sessions', () => {
   it('logs a set of the sixth exercise (positions of block 5 start at 500)', async () => {
     const current = (await request(t.app).get('/api/sessions/current').set(auth.ben)).body.session

@@ -37,16 +37,17 @@ describe('default set schemes (common practice, no published source)', () => {
       [12, 15],
     ])
     expect(s.sets.slice(1).every((x) => (x.loadStepDownPct ?? 0) > 0)).toBe(true)
-    expect(s.warmup).toBe(false)
+    // Warm-ups are left to the engine: a barbell or compound accessory well above its lightest load gets a ramp.
+    expect(s.warmup).toBe(true)
   })
 
-  it('gives isolation two sets of 12-20 (or three of 10-15) and no warm-up', () => {
+  it('gives isolation two sets of 12-20 (or three of 10-15), warm-ups left to the engine', () => {
     expect(DEFAULT_SCHEMES.isolation.sets.map((x) => [x.repsMin, x.repsMax])).toEqual([
       [12, 20],
       [12, 20],
     ])
     expect(ISOLATION_THREE_SETS_SCHEME.sets).toHaveLength(3)
-    expect(DEFAULT_SCHEMES.isolation.warmup).toBe(false)
+    expect(DEFAULT_SCHEMES.isolation.warmup).toBe(true)
   })
 
   it('validates every default with the exported zod schema', () => {

@@ -12,7 +12,10 @@ export class ExerciseModel extends Model<InferAttributes<ExerciseModel>, InferCr
   declare primaryMuscles: string[]
   declare secondaryMuscles: string[]
   declare equipmentKind: string
-  declare loadStepKg: number
+  /** How the logged load relates to the load moved: 'external', 'bodyweight' or 'assisted'. */
+  declare loadMode: CreationOptional<string>
+  /** The exercise's own smallest load step in kg; 0: the smallest step the lifter's equipment makes. */
+  declare loadStepKg: CreationOptional<number>
   declare defaultRestSec: number
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
@@ -26,7 +29,8 @@ export class ExerciseModel extends Model<InferAttributes<ExerciseModel>, InferCr
         primaryMuscles: { type: DataTypes.JSON, allowNull: false },
         secondaryMuscles: { type: DataTypes.JSON, allowNull: false },
         equipmentKind: { type: DataTypes.STRING(20), allowNull: false },
-        loadStepKg: { type: DataTypes.DOUBLE, allowNull: false },
+        loadMode: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'external' },
+        loadStepKg: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
         defaultRestSec: { type: DataTypes.INTEGER, allowNull: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

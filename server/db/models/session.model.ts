@@ -2,6 +2,7 @@ import {
   DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes,
   type InferCreationAttributes, type NonAttribute, type Sequelize,
 } from 'sequelize'
+import type { TakenOption } from '@shared/schemas/run.schema'
 import type { SessionStatus, SetKind, VersionLabel } from '@shared/schemas/session.schema'
 import type { SlotRole } from '@shared/schemas/train.schema'
 import type { ExerciseModel } from './exercise.model'
@@ -67,6 +68,8 @@ export class SetLogModel extends Model<InferAttributes<SetLogModel>, InferCreati
   declare editedAt: CreationOptional<Date | null>
   declare targetReps: CreationOptional<number | null>
   declare role: CreationOptional<SlotRole | null>
+  /** Planned as a deload: progress and plateau checks leave the set out. */
+  declare deload: CreationOptional<boolean>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare exercise?: NonAttribute<ExerciseModel>
@@ -94,6 +97,7 @@ export class SetLogModel extends Model<InferAttributes<SetLogModel>, InferCreati
         editedAt: { type: DataTypes.DATE, allowNull: true },
         targetReps: { type: DataTypes.INTEGER, allowNull: true },
         role: { type: DataTypes.STRING(20), allowNull: true },
+        deload: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
@@ -113,6 +117,8 @@ export class NextStepModel extends Model<InferAttributes<NextStepModel>, InferCr
   declare targetRepsMin: number | null
   declare targetRepsMax: number | null
   declare targetReps: CreationOptional<number | null>
+  /** Which option was taken: the next step, its alternative, an edit, or a plateau option. */
+  declare option: CreationOptional<TakenOption | null>
   declare reason: unknown
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
@@ -126,6 +132,7 @@ export class NextStepModel extends Model<InferAttributes<NextStepModel>, InferCr
         targetRepsMin: { type: DataTypes.INTEGER, allowNull: true },
         targetRepsMax: { type: DataTypes.INTEGER, allowNull: true },
         targetReps: { type: DataTypes.INTEGER, allowNull: true },
+        option: { type: DataTypes.STRING(16), allowNull: true },
         reason: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

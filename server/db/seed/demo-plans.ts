@@ -1,5 +1,5 @@
 import { PLAN_TEMPLATES, type PlanTemplate } from '@shared/domain/plan-templates'
-import type { SlotRole } from '@shared/domain/schemes'
+import type { SetScheme, SlotRole } from '@shared/domain/schemes'
 
 /**
  * The demo club's two plans, built from the split templates: the coach uses the push / pull /
@@ -8,6 +8,7 @@ import type { SlotRole } from '@shared/domain/schemes'
 export interface DemoSlot {
   role: SlotRole
   exercise: string
+  scheme: SetScheme
 }
 export interface DemoDay {
   name: string
@@ -29,8 +30,8 @@ function fromTemplate(id: string, name: string): DemoPlan {
       name: day.name,
       isRest: day.isRest,
       versions: {
-        I: day.slots.map((s) => ({ role: s.role, exercise: s.I })),
-        II: day.slots.map((s) => ({ role: s.role, exercise: s.II })),
+        I: day.slots.map((s) => ({ role: s.role, exercise: s.I, scheme: s.scheme })),
+        II: day.slots.map((s) => ({ role: s.role, exercise: s.II, scheme: s.scheme })),
       },
     })),
   }
@@ -46,7 +47,7 @@ export const UPPER_LOWER = fromTemplate('upper_lower', 'Upper / Lower')
 export const INTERMEDIATE_E1RM_KG: Record<string, number> = {
   'Barbell bench press': 72, 'Incline barbell bench press': 62, 'Standing overhead press': 45,
   'Seated dumbbell shoulder press': 20, 'Incline dumbbell press': 24, 'Machine shoulder press': 55,
-  'Machine chest press': 80, 'Dumbbell lateral raise': 11, 'Cable lateral raise': 14,
+  'Machine chest press': 80, 'Cable chest fly': 30, 'Machine chest fly': 45, 'Dumbbell lateral raise': 11, 'Cable lateral raise': 14,
   'Cable triceps pushdown': 45, 'Overhead cable triceps extension': 38,
   'Barbell bent-over row': 75, 'Conventional deadlift': 130, 'Machine chest-supported row': 80,
   'Wide-grip lat pulldown': 75, 'Close-grip lat pulldown': 78, 'Chest-supported dumbbell row': 30,
@@ -55,4 +56,18 @@ export const INTERMEDIATE_E1RM_KG: Record<string, number> = {
   'Leg press': 200, 'Hack squat machine': 140, 'Walking dumbbell lunge': 26, 'Seated leg curl': 65,
   'Lying leg curl': 55, 'Standing calf raise': 120, 'Seated calf raise': 80, 'Cable curl': 32,
   'Rear-foot-elevated split squat': 22,
+}
+
+/**
+ * Bodyweight lifts: the estimated 1RM (body mass plus added load) of the intermediate lifter as a
+ * multiple of their body mass. Invented values.
+ */
+export const INTERMEDIATE_E1RM_BODY_MASS: Record<string, number> = {
+  'Chin-up': 1.3, 'Weighted pull-up': 1.3, 'Weighted dip': 1.4, 'Push-up': 0.9, 'Back extension': 0.9,
+}
+
+/** The invented intermediate lifter's estimated 1RM on an exercise (kg moved), at this body mass. */
+export function demoE1rmKg(exercise: string, bodyMassKg: number): number {
+  const relative = INTERMEDIATE_E1RM_BODY_MASS[exercise]
+  return relative !== undefined ? relative * bodyMassKg : (INTERMEDIATE_E1RM_KG[exercise] ?? 50)
 }

@@ -1,33 +1,37 @@
 import { randomUUID } from 'node:crypto'
 import bcrypt from 'bcryptjs'
 import type { CreationAttributes, Transaction } from 'sequelize'
-import { loadForReps } from '@shared/domain/e1rm'
 import type { Equipment } from '@shared/domain/equipment'
-import { equipmentFor, KG_GYM, LB_GYM, type ExerciseEquipmentKind, type GymProfile } from '@shared/domain/gym'
+import { defaultGym, equipmentFor, type ExerciseEquipmentKind, type GymProfile } from '@shared/domain/gym'
+import { movedLoadKg, type LoadMode } from '@shared/domain/lift-progress'
+import { COMPOUND_PATTERNS } from '@shared/domain/plan-checks'
 import { planSlotSets } from '@shared/domain/planned-sets'
 import type { Exposure, PerformedSet } from '@shared/domain/progression'
 import { rotationEntry } from '@shared/domain/rotation'
-import { backoffTarget, DEFAULT_REST_SECONDS, DEFAULT_SCHEMES } from '@shared/domain/schemes'
-import { sessionTotals } from '@shared/domain/summary'
+import { backoffTarget, DEFAULT_REST_SECONDS } from '@shared/domain/schemes'
 import type { AppConfig } from '../../config'
 import { storeReviewSummary } from '../../services/run.service'
+import { parseScheme } from '../../services/session-planning.service'
 import {
-  AssignmentModel, ClubModel, CoachAthleteModel, DayVersionModel, EquipmentProfileModel, ExerciseModel,
+  AssignmentModel, BodyWeightModel, ClubModel, CoachAthleteModel, DayVersionModel, EquipmentProfileModel, ExerciseModel,
   PlanDayModel, PlanModel, SessionModel, SetLogModel, SlotModel, UserModel,
 } from '../index'
 import { DEMO_ACCOUNTS, DEMO_CLUB_NAME, DEMO_PASSWORD } from './demo-accounts'
-import { INTERMEDIATE_E1RM_KG, PUSH_PULL_LEGS, UPPER_LOWER, type DemoPlan } from './demo-plans'
+import { demoE1rmKg, PUSH_PULL_LEGS, UPPER_LOWER, type DemoPlan } from './demo-plans'
 import { exerciseLibrary } from './exercise-library'
 import { mulberry32 } from './prng'
+import { simulatedSet } from './simulated-lifter'
 
 export { DEMO_PASSWORD } from './demo-accounts'
 
 const DAY_MS = 24 * 60 * 60 * 1000
-export const DEMO_HISTORY_DAYS = 42
+export const DEMO_HISTORY_DAYS = 70
 
 /** How each invented demo lifter trains: strength relative to the table, weekly gain, attendance. */
 interface DemoLifterProfile {
   strength: number
+  /** Body mass (kg), for bodyweight lifts and the body-weight log. */
+  bodyMassKg: number
   weeklyGainPct: number
   attendance: number
   /** Lifts that stopped improving, so the plateau tools have something to find. */
@@ -52,7 +56,7 @@ async function createPlan(ownerId: number, plan: DemoPlan, exercises: Map<string
         const slotRow = await SlotModel.create(
           {
             dayVersionId: version.id, exerciseId: exercise.id, position: slotPosition, role: slot.role,
-            scheme: DEFAULT_SCHEMES[slot.role], restSec: DEFAULT_REST_SECONDS[slot.role],
+            scheme: slot.scheme, restSec: DEFAULT_REST_SECONDS[slot.role],
           },
           { transaction },
         )
@@ -64,15 +68,12 @@ async function createPlan(ownerId: number, plan: DemoPlan, exercises: Map<string
   return { plan: planRow, days }
 }
 
-/** Reps a lifter with this estimated 1RM can do at a load (Epley inverted: r = 30 (1RM / w - 1)). */
-function repsToFailure(e1rmKg: number, loadKg: number) {
-  return 30 * (e1rmKg / loadKg - 1)
-}
-
 /**
  * Six weeks of plausible training for one lifter: follows the plan's rotation (rest days pass,
- * missed days do not skip ahead), plans every slot with the engine from what was done last time
- * (warm-up ramps, double progression), and works out each back-off set from the top set done.
+ * missed days do not skip ahead), plans every slot with the engine from what was done before
+ * (warm-up ramps, next steps taken as the lifter would with "Take all"), and works out each
+ * back-off set from the top set done. The lifter's true strength and the reps it allows come
+ * from simulated-lifter.ts.
  */
 async function simulateHistory(
   athlete: UserModel,
@@ -100,6 +101,7 @@ async function simulateHistory(
     if (random() > profile.attendance) continue // a missed day: the same session waits for tomorrow
 
     const weeks = d / 7
+    const bodyMassKg = profile.bodyMassKg
     const startedAt = new Date(dayStart.getTime() + (17 + Math.floor(random() * 3)) * 3600_000)
     const session = await SessionModel.create(
       {
@@ -111,19 +113,22 @@ async function simulateHistory(
     )
     const sessionSets: CreationAttributes<SetLogModel>[] = []
     let clock = startedAt.getTime()
+    const warmedPatterns = new Set<string>()
     for (const { slot, exercise } of versions[entry.version]) {
       const equipment: Equipment = equipmentFor(gym, exercise.equipmentKind as ExerciseEquipmentKind)
+      const mode = (exercise.loadMode ?? 'external') as LoadMode
       const gain = profile.stalled.includes(exercise.name) ? 0 : profile.weeklyGainPct / 100
-      const e1rm = (INTERMEDIATE_E1RM_KG[exercise.name] ?? 50) * profile.strength * (1 + gain * weeks)
-      const scheme = DEFAULT_SCHEMES[slot.role]
+      const e1rm = demoE1rmKg(exercise.name, bodyMassKg) * profile.strength * (1 + gain * weeks)
       const history = exposures.get(slot.id) ?? []
-      const first = scheme.sets[0]
-      // First exposure: a load the lifter can do for the middle of the range with the effort asked.
-      const startReps = Math.round((first.repsMin + first.repsMax) / 2) + (first.targetRir ?? 0)
       const planned = planSlotSets({
-        role: slot.role, equipment, last: history.at(-1), previous: history.at(-2),
-        startLoadKg: loadForReps(e1rm, startReps), restSeconds: slot.restSec,
+        role: slot.role, scheme: parseScheme(slot.scheme), equipment, mode, bodyMassKg, history,
+        // A first session starts from the coach's estimate, a little under the lifter's strength.
+        startE1rmKg: e1rm * 0.95, restSeconds: slot.restSec,
+        compound: slot.role === 'compound_primary' || COMPOUND_PATTERNS.has(exercise.pattern),
+        patternWarmedUp: warmedPatterns.has(exercise.pattern),
       })
+      warmedPatterns.add(exercise.pattern)
+      const reading = { mode, bodyMassKg }
       const done: PerformedSet[] = []
       for (const set of planned) {
         const row = {
@@ -137,27 +142,20 @@ async function simulateHistory(
           continue
         }
         const targetKg = set.kind === 'backoff'
-          ? backoffTarget({ topLoadKg: done[0].loadKg, topReps: done[0].reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, equipment }).target.loadKg
-          : set.targetLoadKg
-        // Fatigue from earlier sets costs about 4 % of strength per set (invented for the demo).
-        const capacity = repsToFailure(e1rm * (1 - 0.04 * done.length), targetKg) + (random() - 0.5) * 1.6
-        // A set far too light for the lifter still ends a few reps past the range (they stop).
-        const reps = set.toFailure
-          ? Math.max(1, Math.min(set.targetRepsMax + 3, Math.floor(capacity)))
-          : Math.max(1, Math.min(set.targetRepsMax + 1, Math.floor(capacity - (set.targetRir ?? 0))))
-        // Lifters rate reserve only up to about 5 reps (RIR scale, Zourdos et al. 2016).
-        const rir = set.toFailure ? 0 : Math.min(5, Math.max(0, Math.floor(capacity) - reps))
-        done.push({ kind: set.kind, loadKg: targetKg, reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, rir })
+          ? backoffTarget({ topLoadKg: done[0].loadKg, topReps: done[0].reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, equipment, reading }).target.loadKg
+          : set.targetLoadKg!
+        const result = simulatedSet({ e1rmKg: e1rm, movedKg: movedLoadKg(targetKg, reading) ?? targetKg, setsBefore: done.length, set, noise: random() })
+        done.push({
+          kind: set.kind, loadKg: targetKg, reps: result.reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, rir: result.rir,
+          targetLoadKg: set.kind === 'backoff' ? targetKg : set.targetLoadKg, targetReps: set.targetReps, targetRir: set.targetRir,
+        })
         clock += set.restSeconds * 1000 + 45_000
-        sessionSets.push({ ...row, targetLoadKg: targetKg, loadKg: targetKg, reps, rir, failure: set.toFailure, loggedAt: new Date(clock) })
+        sessionSets.push({ ...row, targetLoadKg: targetKg, loadKg: targetKg, reps: result.reps, rir: result.rir, failure: set.toFailure, loggedAt: new Date(clock) })
       }
-      exposures.set(slot.id, [...history, { sets: done }])
+      exposures.set(slot.id, [...history, { sets: done, bodyMassKg }])
     }
     const completedAt = new Date(clock + 120_000)
-    await session.update(
-      { completedAt, summary: sessionTotals(sessionSets.map((s) => ({ kind: s.kind, loadKg: s.loadKg ?? null, reps: s.reps ?? null }))) },
-      { transaction },
-    )
+    await session.update({ completedAt }, { transaction })
     setRows.push(...sessionSets)
     rotationIndex += 1
   }
@@ -186,7 +184,7 @@ export async function seedDemo(config: AppConfig, now = new Date()) {
 
     const gyms = new Map<number, GymProfile>()
     for (const athlete of athletes) {
-      const gym = athlete.unit === 'lb' ? LB_GYM : KG_GYM
+      const gym = defaultGym(athlete.unit)
       gyms.set(athlete.id, gym)
       await EquipmentProfileModel.create(
         { userId: athlete.id, name: athlete.unit === 'lb' ? 'Pound gym' : 'Kilogram gym', spec: gym, isDefault: true },
@@ -198,15 +196,24 @@ export async function seedDemo(config: AppConfig, now = new Date()) {
     const upperLower = await createPlan(users.coach.id, UPPER_LOWER, exercises, transaction)
     const startDate = new Date(now.getTime() - DEMO_HISTORY_DAYS * DAY_MS).toISOString().slice(0, 10)
     const plans = [
-      { athlete: users.lifterKg, plan: ppl, profile: { strength: 1, weeklyGainPct: 0.6, attendance: 0.8, stalled: [], seed: 11 } },
-      { athlete: users.lifterLb, plan: upperLower, profile: { strength: 0.75, weeklyGainPct: 1.5, attendance: 0.7, stalled: [], seed: 22 } },
+      { athlete: users.lifterKg, plan: ppl, profile: { strength: 1, bodyMassKg: 63, weeklyGainPct: 0.6, attendance: 0.8, stalled: [], seed: 11 } },
+      { athlete: users.lifterLb, plan: upperLower, profile: { strength: 0.75, bodyMassKg: 84, weeklyGainPct: 1.5, attendance: 0.7, stalled: [], seed: 22 } },
       {
         athlete: users.lifterAdvanced,
         plan: ppl,
-        profile: { strength: 1.45, weeklyGainPct: 0.25, attendance: 0.9, stalled: ['Barbell bench press'], seed: 33 },
+        profile: { strength: 1.45, bodyMassKg: 71, weeklyGainPct: 0.25, attendance: 0.9, stalled: ['Barbell bench press'], seed: 33 },
       },
     ]
     for (const { athlete, plan, profile } of plans) {
+      // A body-weight entry every week of the history (steady, for the demo).
+      await BodyWeightModel.bulkCreate(
+        Array.from({ length: DEMO_HISTORY_DAYS / 7 + 1 }, (_, w) => ({
+          userId: athlete.id,
+          measuredOn: new Date(now.getTime() - (DEMO_HISTORY_DAYS - 7 * w) * DAY_MS).toISOString().slice(0, 10),
+          weightKg: profile.bodyMassKg,
+        })),
+        { transaction },
+      )
       const assignment = await AssignmentModel.create({ athleteId: athlete.id, planId: plan.plan.id, startDate }, { transaction })
       await simulateHistory(athlete, assignment, plan.days, gyms.get(athlete.id)!, profile, now, transaction)
     }

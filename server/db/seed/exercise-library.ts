@@ -4,13 +4,15 @@ import type { CreateExerciseInput, ExerciseEquipment, Muscle, MovementPattern } 
  * The shared exercise library: generic names only. Default rest follows the rest-interval
  * research (Schoenfeld et al., JSCR 30(7):1805-1812, 2016; Grgic et al., Sports Med
  * 48(1):137-151, 2018; ACSM position stand 2009): 180 s for heavy multi-joint lifts, 120 s for
- * other compound work, 90 s for isolation. Load steps: 2.5 kg on barbells (a pair of 1.25 kg
- * discs), 2 kg between fixed dumbbells, 5 kg on stacks, 2.5 kg added load on bodyweight
- * lifts (common practice, no published source).
+ * other compound work, 90 s for isolation. Load steps come from each lifter's own gym (the
+ * smallest step their bar, dumbbells or stack can make), so the library sets none (0). Bodyweight
+ * lifts count the lifter's body mass plus the added load; an assisted lift counts body mass minus
+ * the help.
  */
 type Row = [name: string, pattern: MovementPattern, primary: Muscle[], secondary: Muscle[], equipment: ExerciseEquipment, restSec: number]
 
-const STEP_KG: Record<ExerciseEquipment, number> = { barbell: 2.5, dumbbell: 2, machine: 5, cable: 5, bodyweight: 2.5 }
+/** Exercises whose machine helps the lifter up: the logged load is the assistance. */
+const ASSISTED = new Set(['Assisted pull-up machine', 'Assisted dip machine'])
 
 const rows: Row[] = [
   // horizontal push
@@ -21,6 +23,7 @@ const rows: Row[] = [
   ['Incline dumbbell press', 'horizontal_push', ['chest', 'front_delts'], ['triceps'], 'dumbbell', 120],
   ['Machine chest press', 'horizontal_push', ['chest'], ['front_delts', 'triceps'], 'machine', 120],
   ['Weighted dip', 'horizontal_push', ['chest', 'triceps'], ['front_delts'], 'bodyweight', 120],
+  ['Assisted dip machine', 'horizontal_push', ['chest', 'triceps'], ['front_delts'], 'machine', 120],
   ['Push-up', 'horizontal_push', ['chest'], ['front_delts', 'triceps'], 'bodyweight', 90],
   // vertical push
   ['Standing overhead press', 'vertical_push', ['front_delts'], ['triceps', 'side_delts'], 'barbell', 180],
@@ -28,6 +31,7 @@ const rows: Row[] = [
   ['Machine shoulder press', 'vertical_push', ['front_delts'], ['triceps', 'side_delts'], 'machine', 120],
   // chest fly and raises
   ['Cable chest fly', 'chest_fly', ['chest'], ['front_delts'], 'cable', 90],
+  ['Dumbbell chest fly', 'chest_fly', ['chest'], ['front_delts'], 'dumbbell', 90],
   ['Machine chest fly', 'chest_fly', ['chest'], ['front_delts'], 'machine', 90],
   ['Dumbbell lateral raise', 'lateral_raise', ['side_delts'], [], 'dumbbell', 90],
   ['Cable lateral raise', 'lateral_raise', ['side_delts'], [], 'cable', 90],
@@ -45,6 +49,7 @@ const rows: Row[] = [
   ['Chin-up', 'vertical_pull', ['lats', 'biceps'], ['upper_back'], 'bodyweight', 120],
   ['Wide-grip lat pulldown', 'vertical_pull', ['lats'], ['biceps', 'upper_back'], 'cable', 120],
   ['Close-grip lat pulldown', 'vertical_pull', ['lats'], ['biceps'], 'cable', 120],
+  ['Assisted pull-up machine', 'vertical_pull', ['lats'], ['biceps', 'upper_back'], 'machine', 120],
   ['Single-arm cable pulldown', 'vertical_pull', ['lats'], ['biceps'], 'cable', 90],
   // horizontal pull
   ['Barbell bent-over row', 'horizontal_pull', ['upper_back', 'lats'], ['biceps', 'lower_back'], 'barbell', 180],
@@ -64,8 +69,8 @@ const rows: Row[] = [
   // squat
   ['Back squat', 'squat', ['quads', 'glutes'], ['adductors', 'lower_back'], 'barbell', 180],
   ['Front squat', 'squat', ['quads'], ['glutes', 'upper_back'], 'barbell', 180],
-  ['Hack squat machine', 'squat', ['quads'], ['glutes'], 'machine', 180],
-  ['Leg press', 'squat', ['quads', 'glutes'], ['adductors'], 'machine', 120],
+  ['Hack squat machine', 'squat', ['quads'], ['glutes'], 'sled', 180],
+  ['Leg press', 'squat', ['quads', 'glutes'], ['adductors'], 'sled', 120],
   ['Goblet squat', 'squat', ['quads'], ['glutes'], 'dumbbell', 120],
   // hinge
   ['Conventional deadlift', 'hinge', ['glutes', 'hamstrings', 'lower_back'], ['upper_back', 'forearms'], 'barbell', 180],
@@ -98,7 +103,8 @@ export const exerciseLibrary: CreateExerciseInput[] = rows.map(
     primaryMuscles,
     secondaryMuscles,
     equipmentKind,
-    loadStepKg: STEP_KG[equipmentKind],
+    loadMode: ASSISTED.has(name) ? 'assisted' : equipmentKind === 'bodyweight' ? 'bodyweight' : 'external',
+    loadStepKg: 0,
     defaultRestSec,
   }),
 )

@@ -1,11 +1,13 @@
 import { QueryTypes } from 'sequelize'
 import type { Database, Statement } from 'sqlite3'
-import { loadForReps } from '@shared/domain/e1rm'
 import type { Equipment } from '@shared/domain/equipment'
-import { equipmentFor, KG_GYM, LB_GYM, type ExerciseEquipmentKind, type GymProfile } from '@shared/domain/gym'
+import { defaultGym, equipmentFor, type ExerciseEquipmentKind, type GymProfile } from '@shared/domain/gym'
+import { movedLoadKg, type LoadMode } from '@shared/domain/lift-progress'
+import { reportLift } from '@shared/domain/lift-report'
+import { COMPOUND_PATTERNS } from '@shared/domain/plan-checks'
 import { planSlotSets } from '@shared/domain/planned-sets'
 import type { Exposure, PerformedSet } from '@shared/domain/progression'
-import { sessionRecords, type LoadReps } from '@shared/domain/records'
+import type { LoadReps } from '@shared/domain/records'
 import { reviewFlags, type ReviewBlock } from '@shared/domain/review-flags'
 import { rotationEntry, todayInRotation } from '@shared/domain/rotation'
 import { backoffTarget, DEFAULT_SCHEMES, setSchemeSchema, type SetScheme, type SlotRole } from '@shared/domain/schemes'
@@ -17,9 +19,10 @@ import {
 } from '../index'
 import { migrate } from '../migrate'
 import { DEMO_ACCOUNTS, DEMO_CLUB_NAME } from './demo-accounts'
-import { INTERMEDIATE_E1RM_KG, PUSH_PULL_LEGS, UPPER_LOWER } from './demo-plans'
+import { demoE1rmKg, PUSH_PULL_LEGS, UPPER_LOWER } from './demo-plans'
 import { resetAndSeedDemo } from './demo'
 import { mulberry32 } from './prng'
+import { simulatedSet } from './simulated-lifter'
 
 /**
  * The large benchmark scenario (`npm run seed:large`): the demo club plus many invented
@@ -57,7 +60,7 @@ export interface LargeSeedResult {
 
 const DAY_MS = 86_400_000
 const BLOCK_STRIDE = 100 // as the runner numbers sets: block i at positions i*100 ..
-const EXPOSURES_KEPT = 6 // as historyFor keeps them for the review flags
+const EXPOSURES_KEPT = 8 // as historyFor keeps them for the review flags
 export const LARGE_EMAIL_DOMAIN = 'harbourstreet.example'
 
 /** Neutral invented first names; with a last initial they name no one in particular. */
@@ -259,9 +262,6 @@ async function loadPlan(coachId: number, name: string): Promise<PlanInfo> {
   }
 }
 
-/** Reps a lifter with this estimated 1RM can do at a load (Epley inverted: r = 30 (1RM / w - 1)). */
-const repsToFailure = (e1rmKg: number, loadKg: number) => 30 * (e1rmKg / loadKg - 1)
-
 /** Weekday patterns (0 = Monday) for three and four training days a week. */
 const WEEK_PATTERNS = [[0, 2, 4], [1, 3, 5], [0, 2, 5], [0, 1, 3, 4], [0, 2, 4, 5], [1, 2, 4, 6]]
 
@@ -286,7 +286,7 @@ interface SimulationContext {
  */
 async function simulateAthlete(ctx: SimulationContext, athlete: UserModel, assignment: AssignmentModel, plan: PlanInfo, random: () => number) {
   const { writers, totals, today, weeks } = ctx
-  const gym: GymProfile = athlete.unit === 'lb' ? LB_GYM : KG_GYM
+  const gym: GymProfile = defaultGym(athlete.unit)
   const restFlags = plan.days.map((d) => d.isRest)
   // An invented profile (made-up ranges, no published source): level, how much and how fast
   // they gain, how often they come, habits.
@@ -351,20 +351,27 @@ async function simulateAthlete(ctx: SimulationContext, athlete: UserModel, assig
       const rests: Array<{ plannedSec: number; actualSec: number }> = []
       const working: SummarisableSet[] = []
       let records = 0
+      let volume = 0
       let topSetId: string | null = null
 
+      const warmedPatterns = new Set<string>()
+      const patternSets = new Map<string, number>()
+      const doneByBlock: Array<{ slot: (typeof slots)[number]; done: PerformedSet[]; history: Exposure[]; equipment: Equipment; mode: LoadMode; reviewPlanned: ReviewBlock['planned'] }> = []
       for (let blockIndex = 0; blockIndex < slots.length; blockIndex++) {
         const slot = slots[blockIndex]
         const equipment: Equipment = equipmentFor(gym, slot.exercise.equipmentKind as ExerciseEquipmentKind)
+        const mode = (slot.exercise.loadMode ?? 'external') as LoadMode
+        const reading = { mode, bodyMassKg: bodyWeight }
         const gainWeeks = slot.exercise.name === mainLift ? Math.min(weeksIn, stallFromWeek) : weeksIn
-        const e1rm = (INTERMEDIATE_E1RM_KG[slot.exercise.name] ?? 50) * strength * (1 + maxGain * (1 - Math.exp(-gainWeeks / tauWeeks))) * detrain * dayForm
+        const e1rm = demoE1rmKg(slot.exercise.name, bodyWeight) * strength * (1 + maxGain * (1 - Math.exp(-gainWeeks / tauWeeks))) * detrain * dayForm
         const history = exposures.get(slot.id) ?? []
-        const first = slot.scheme.sets[0]
-        const startReps = Math.round((first.repsMin + first.repsMax) / 2) + (first.targetRir ?? 0)
         const planned = planSlotSets({
-          role: slot.role, scheme: slot.scheme, equipment, last: history.at(-1), previous: history.at(-2),
-          startLoadKg: loadForReps(e1rm, startReps), restSeconds: slot.restSec,
+          role: slot.role, scheme: slot.scheme, equipment, mode, bodyMassKg: bodyWeight, history,
+          startE1rmKg: e1rm * 0.95, restSeconds: slot.restSec,
+          compound: slot.role === 'compound_primary' || COMPOUND_PATTERNS.has(slot.exercise.pattern),
+          patternWarmedUp: warmedPatterns.has(slot.exercise.pattern),
         })
+        warmedPatterns.add(slot.exercise.pattern)
         const done: PerformedSet[] = []
         const reviewPlanned: ReviewBlock['planned'] = []
         let lastWorkingAt: number | null = null
@@ -390,16 +397,16 @@ async function simulateAthlete(ctx: SimulationContext, athlete: UserModel, assig
             continue
           }
           const targetKg = set.kind === 'backoff'
-            ? backoffTarget({ topLoadKg: done[0].loadKg, topReps: done[0].reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, equipment }).target.loadKg
-            : set.targetLoadKg
-          // Fatigue from earlier sets costs about 4 % of strength per set (invented, as in the demo).
-          const capacity = repsToFailure(e1rm * (1 - 0.04 * done.length), targetKg) + (random() - 0.5) * 1.6
-          const reps = set.toFailure
-            ? Math.max(1, Math.min(set.targetRepsMax + 3, Math.floor(capacity)))
-            : Math.max(1, Math.min(set.targetRepsMax + 1, Math.floor(capacity - (set.targetRir ?? 0))))
-          // Lifters rate reserve only up to about 5 reps (RIR scale, Zourdos et al. 2016).
-          const rir = set.toFailure ? 0 : random() < rirShare ? Math.min(5, Math.max(0, Math.floor(capacity) - reps)) : null
-          done.push({ kind: set.kind, loadKg: targetKg, reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, rir })
+            ? backoffTarget({ topLoadKg: done[0].loadKg, topReps: done[0].reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, equipment, reading }).target.loadKg
+            : set.targetLoadKg!
+          const result = simulatedSet({ e1rmKg: e1rm, movedKg: movedLoadKg(targetKg, reading) ?? targetKg, setsBefore: done.length, set, noise: random() })
+          const reps = result.reps
+          // Some lifters rate their reserve on every set, some never.
+          const rir = set.toFailure ? 0 : random() < rirShare ? result.rir : null
+          done.push({
+            kind: set.kind, loadKg: targetKg, reps, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, rir,
+            targetLoadKg: targetKg, targetReps: set.targetReps, targetRir: set.toFailure ? null : set.targetRir,
+          })
           reviewPlanned.push({ kind: set.kind, repsMin: set.targetRepsMin, repsMax: set.targetRepsMax, done: { loadKg: targetKg, reps } })
           // A set takes about 45 s; a hurried lifter now and then starts the next one early.
           clock += Math.round(hurried && random() < 0.4 ? set.restSeconds * 250 + 20_000 : set.restSeconds * 1000 * (0.85 + random() * 0.5) + 45_000)
@@ -413,17 +420,31 @@ async function simulateAthlete(ctx: SimulationContext, athlete: UserModel, assig
             set.targetReps, set.toFailure ? 1 : 0, set.targetRir, targetKg, reps, rir, set.toFailure ? 1 : 0, null, at, 0, at, slot.role, startedText, at,
           ])
         }
-        blocks.push({ exercise: slot.exercise.name, role: slot.role, equipment, planned: reviewPlanned, history, exposure: { sets: done } })
-        // Records against the best earlier reps at each load (the same answer as every earlier set).
+        patternSets.set(slot.exercise.pattern, (patternSets.get(slot.exercise.pattern) ?? 0) + done.length)
+        doneByBlock.push({ slot, done, history, equipment, mode, reviewPlanned })
+      }
+      // Each lift's report as the server makes it when the session is finished (session-report.service.ts).
+      for (const { slot, done, history, equipment, mode, reviewPlanned } of doneByBlock) {
         const best = bestSets.get(slot.exercise.id) ?? []
-        records += sessionRecords(done, best).length
+        const report = reportLift({
+          role: slot.role,
+          version: entry.version,
+          lift: { equipment, mode, loadStepKg: null },
+          history,
+          current: { sets: done, bodyMassKg: bodyWeight },
+          recordHistory: best,
+          patternSetsInSession: patternSets.get(slot.exercise.pattern) ?? 0,
+        })
+        blocks.push({ exercise: slot.exercise.name, planned: reviewPlanned, lift: report })
+        records += report.records.length
+        volume += report.volumeKg
         for (const d of done) {
           const atLoad = best.find((b) => b.loadKg === d.loadKg)
           if (!atLoad) best.push({ loadKg: d.loadKg, reps: d.reps })
           else if (d.reps > atLoad.reps) atLoad.reps = d.reps
         }
         bestSets.set(slot.exercise.id, best)
-        if (done.length > 0) exposures.set(slot.id, [...history.slice(-(EXPOSURES_KEPT - 1)), { sets: done }])
+        if (done.length > 0) exposures.set(slot.id, [...history.slice(-(EXPOSURES_KEPT - 1)), { sets: done, bodyMassKg: bodyWeight }])
       }
 
       const completedAt = clock + 120_000
@@ -433,7 +454,7 @@ async function simulateAthlete(ctx: SimulationContext, athlete: UserModel, assig
       const completedText = sqlDate(completedAt)
       await writers.sessions.add([
         sessionId, athlete.id, assignment.id, planDay.id, planDay.name, entry.version, 'completed', startedText, completedText,
-        JSON.stringify({ ...sessionTotals(working), flags, records }), null, entry.rotationIndex, startedText, completedText,
+        JSON.stringify({ workingSets: sessionTotals(working).workingSets, volumeKg: volume, flags, records }), null, entry.rotationIndex, startedText, completedText,
       ])
       for (const row of setRows) await writers.sets.add(row)
       totals.sessions += 1
@@ -497,7 +518,7 @@ export async function seedLarge(_config: AppConfig, options: LargeSeedOptions = 
     )
     await CoachAthleteModel.bulkCreate(users.map((u) => ({ coachId: coach.id, athleteId: u.id })), { transaction })
     await EquipmentProfileModel.bulkCreate(
-      users.map((u) => ({ userId: u.id, name: u.unit === 'lb' ? 'Pound gym' : 'Kilogram gym', spec: u.unit === 'lb' ? LB_GYM : KG_GYM, isDefault: true })),
+      users.map((u) => ({ userId: u.id, name: u.unit === 'lb' ? 'Pound gym' : 'Kilogram gym', spec: defaultGym(u.unit), isDefault: true })),
       { transaction },
     )
     const assignments = await AssignmentModel.bulkCreate(

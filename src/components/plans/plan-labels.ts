@@ -49,6 +49,7 @@ export const EQUIPMENT_LABELS: Record<ExerciseEquipment, string> = {
   machine: 'Machine',
   cable: 'Cable',
   bodyweight: 'Bodyweight',
+  sled: 'Plate-loaded sled',
 }
 
 /** A muscle code in plain words; unknown codes lose their underscores. */

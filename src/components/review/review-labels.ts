@@ -1,5 +1,5 @@
 import type { ReviewFlagView } from '@shared/schemas/review.schema'
-import { signedPercent } from '@/utils/set-text'
+import { signedPercentText } from '@/utils/next-step-text'
 
 /* The review desk's flags in words, for chips on the desk and at the top of a session review. */
 
@@ -18,7 +18,7 @@ export const FLAG_TONE: Record<ReviewFlagCode, 'danger' | 'warning'> = {
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`
 
 /**
- * "Plateau: Barbell bench press (3 sessions)", "Regression: Back squat −7.9 %",
+ * "Plateau: Barbell bench press (3 sessions)", "Regression: Back squat estimated 1RM −7.9 %",
  * "Top set far short: Bench press, 4 of 6–9", "Cut short: 8 of 12 sets", "Missed 3 training days".
  * The flag carries the bottom of the top set's range; pass the top of it when known.
  */
@@ -29,7 +29,8 @@ export function flagText(flag: ReviewFlagView, repsMax: number | null = null): s
     case 'plateau':
       return `Plateau: ${name} (${plural(v.exposures ?? 0, 'session', 'sessions')})`
     case 'regression':
-      return `Regression: ${name} ${signedPercent(-(v.dropPct ?? 0))}`
+      // The same figure, formatted the same way, as the summary's estimated-1RM change for the lift.
+      return `Regression: ${name} estimated 1RM ${v.e1rmChangePct === undefined ? 'down' : signedPercentText(v.e1rmChangePct)}`
     case 'top_set_far_short': {
       const max = repsMax ?? v.repsMax ?? null
       const range = max !== null && max !== v.repsMin ? `${v.repsMin}–${max}` : `${v.repsMin}+`

@@ -31,6 +31,7 @@ export function buildSet(overrides: Partial<RunSet> = {}): RunSet {
     note: null,
     loggedAt: null,
     editedAt: null,
+    deload: false,
     ...overrides,
   }
 }
@@ -43,6 +44,9 @@ export const benchPress: RunExercise = {
   role: 'compound_primary',
   restSec: 180,
   equipment: KG_COMPETITION_SET,
+  equipmentKind: 'barbell',
+  loadMode: 'external',
+  bodyMassKg: null,
   lastTime: [
     { kind: 'top', loadKg: 97.5, reps: 8, rir: 0 },
     { kind: 'backoff', loadKg: 85, reps: 11, rir: 1 },
@@ -60,6 +64,9 @@ export const cableFly: RunExercise = {
   role: 'isolation',
   restSec: 90,
   equipment: { kind: 'stack', unit: 'kg', steps: [5, 10, 15, 20, 25, 30], addOns: [] },
+  equipmentKind: 'cable',
+  loadMode: 'external',
+  bodyMassKg: null,
   lastTime: [],
   lastTimeAt: null,
   coachComments: [],
@@ -91,3 +98,35 @@ export function buildRunSession(): RunSession {
     ],
   }
 }
+
+/** The same push day with bench press new to the lifter: no warm-ups and no loads (no history, no estimate). */
+export function buildUnplannedSession(): RunSession {
+  const session = buildRunSession()
+  session.sets = session.sets
+    .filter((s) => !(s.exerciseId === 1 && s.kind === 'warmup'))
+    .map((s) => (s.exerciseId === 1 ? { ...s, targetLoadKg: null, targetReps: s.kind === 'top' ? 7 : 9 } : s))
+  return session
+}
+
+/** The server's answer to a start: bench press planned again from it with new set ids, its warm-up first. */
+export function plannedFromStart(session: RunSession): RunSession {
+  const bench = { exerciseId: 1, slotId: 10 }
+  return {
+    ...session,
+    sets: [
+      buildSet({ ...bench, position: 0, kind: 'warmup', targetLoadKg: 25, targetRepsMin: 6, targetRepsMax: 6 }),
+      buildSet({ ...bench, position: 1, kind: 'top', targetLoadKg: 70, targetRepsMin: 6, targetRepsMax: 9, targetReps: 7, toFailure: true }),
+      buildSet({ ...bench, position: 2, kind: 'backoff', targetLoadKg: 60, targetRepsMin: 9, targetRepsMax: 12, targetReps: 9, toFailure: true }),
+      ...session.sets.filter((s) => s.exerciseId === 2),
+    ],
+  }
+}
+
+/** The push day with both bench warm-ups already logged: the top set is on the card. */
+export function buildSessionAtTopSet(): RunSession {
+  const session = buildRunSession()
+  session.sets[0] = { ...session.sets[0], loadKg: 25, reps: 6, loggedAt: '2026-12-01T17:50:00.000Z', editedAt: '2026-12-01T17:50:00.000Z' }
+  session.sets[1] = { ...session.sets[1], loadKg: 80, reps: 3, loggedAt: '2026-12-01T17:53:00.000Z', editedAt: '2026-12-01T17:53:00.000Z' }
+  return session
+}
+
